@@ -1,0 +1,77 @@
+"""The one entry point: `fixbench` opens the window; `fixbench COMMAND` runs a command-line task.
+
+Each command lives in its own module under ``fixbench.commands`` and exposes ``HELP`` (one line),
+``add_arguments(parser)`` and ``run(args) -> int``. Modules are imported only when their command is
+used, so `fixbench families` does not pay for Qt or SQLAlchemy.
+"""
+
+from __future__ import annotations
+
+import argparse
+import importlib
+import sys
+
+# command name -> module under fixbench.commands
+COMMANDS: dict[str, str] = {
+    "families": "families",
+    "expect": "expect",
+    "diagnose": "diagnose",
+    "simulate": "simulate",
+    "benchmark": "benchmark",
+    "backup": "backup",
+    "restore": "restore",
+    "demo-db": "demo_db",
+    "export": "export",
+}
+
+
+class UsageError(Exception):
+    """A mistake in how a command was called or in a file it was given; exit status 2."""
+
+
+def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="fixbench",
+        description="Guided fault-finding for offline switch-mode supplies. "
+        "Run without a command to open the window.",
+    )
+    parser.add_argument("--db", help="database URL or SQLite file (default: the user data folder; "
+                        "or set FIXBENCH_DB)")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    wanted = next((a for a in argv if not a.startswith("-")), None)
+    for name, module_name in COMMANDS.items():
+        # Import only the command asked for; others get a placeholder line in --help.
+        if name == wanted:
+            module = importlib.import_module(f"fixbench.commands.{module_name}")
+            cmd = sub.add_parser(name, help=module.HELP, description=module.HELP)
+            module.add_arguments(cmd)
+            cmd.set_defaults(_module=module)
+        else:
+            sub.add_parser(name, help=_help_line(module_name))
+    return parser
+
+
+def _help_line(module_name: str) -> str:
+    try:
+        return importlib.import_module(f"fixbench.commands.{module_name}").HELP
+    except ModuleNotFoundError:
+        return "(not available in this build)"
+
+
+def main(argv: list[str] | None = None) -> int:
+    argv = list(sys.argv[1:] if argv is None else argv)
+    parser = _build_parser(argv)
+    args = parser.parse_args(argv)
+    if args.command is None:
+        from fixbench.app import open_window
+
+        return open_window(db=args.db)
+    try:
+        return int(args._module.run(args) or 0)
+    except UsageError as err:
+        print(f"fixbench {args.command}: {err}", file=sys.stderr)
+        return 2
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,214 @@
+"""What the knowledge files describe, as plain frozen dataclasses.
+
+A supply family is a set of stages joined by links, the parts inside each stage, the test points a
+probe can touch, the checks a technician can make, and the faults parts suffer. The engine and the
+physics read these; nothing here computes anything.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+# Instruments a check can use, and the unit each reads in (None: an outcome is picked, not typed).
+INSTRUMENT_UNITS: dict[str, str | None] = {
+    "ohmmeter": "ohm",
+    "diode_test": "V",
+    "capacitance": "F",
+    "esr": "ohm",
+    "dc_volts": "V",
+    "ac_volts": "V",
+    "ripple": "V",
+    "frequency": "Hz",
+    "eyes": None,
+    "ears": None,
+    "nose": None,
+    "series_lamp": None,
+    "question": None,
+}
+# cold: unplugged and discharged; lamp: mains through a series lamp; live: plain mains;
+# none: nothing is touched (a symptom or a look).
+POWER_STATES = ("none", "cold", "lamp", "live")
+STAGE_ROLES = (
+    "input", "rectifier", "bulk", "startup", "drive", "switch", "clamp", "transformer",
+    "output_rectifier", "output_filter", "feedback", "lead",
+)
+LINK_KINDS = ("power", "control")
+SIDES = ("primary", "isolation", "secondary")
+PART_KINDS = (
+    "fuse", "thermistor", "bridge", "electrolytic", "film_capacitor", "resistor", "fast_diode",
+    "rectifier_diode", "schottky", "zener", "mosfet", "bjt", "controller", "transformer",
+    "optocoupler", "tl431", "lead",
+)
+
+
+@dataclass(frozen=True)
+class Stage:
+    id: str
+    title: str
+    role: str
+    side: str
+
+
+@dataclass(frozen=True)
+class Link:
+    source: str
+    target: str
+    kind: str
+
+
+@dataclass(frozen=True)
+class Part:
+    id: str
+    stage: str
+    kind: str
+    role: str
+    title: str
+    value: str | None = None  # "22 uF", "rule:bulk_capacitance" or None where a value means nothing
+    rated: str | None = None  # voltage rating of a capacitor, same forms as value
+    cost: float = 0.0
+
+
+@dataclass(frozen=True)
+class TestPoint:
+    id: str
+    stage: str
+    title: str
+
+
+@dataclass(frozen=True)
+class Check:
+    id: str
+    title: str
+    instrument: str
+    power: str
+    points: tuple[str, ...]
+    target: str  # "part:ID" (that part's cold reading) or "signal:NAME" (from the operating model)
+    minutes: float
+    how: str
+    outcomes: tuple[str, ...] = ()
+    procedure: bool = False  # a safety step that tells nothing about the fault
+
+    @property
+    def unit(self) -> str | None:
+        return INSTRUMENT_UNITS[self.instrument]
+
+    @property
+    def target_kind(self) -> str:
+        return self.target.split(":", 1)[0]
+
+    @property
+    def target_id(self) -> str:
+        return self.target.split(":", 1)[1]
+
+
+@dataclass(frozen=True)
+class Collateral:
+    part: str
+    mode: str
+    probability: float
+
+
+@dataclass(frozen=True)
+class Fault:
+    id: str
+    part: str
+    mode: str
+    title: str
+    weight: float
+    source: str
+    collateral: tuple[Collateral, ...] = ()
+
+
+@dataclass(frozen=True)
+class Family:
+    id: str
+    title: str
+    summary: str
+    examples: tuple[str, ...]
+    identify: dict[str, bool]
+    design: dict[str, object]
+    stages: tuple[Stage, ...]
+    links: tuple[Link, ...]
+    parts: tuple[Part, ...]
+    test_points: tuple[TestPoint, ...]
+    checks: tuple[Check, ...]
+    faults: tuple[Fault, ...]
+    source_file: str = ""
+    _index: dict = field(default_factory=dict, compare=False, repr=False)
+
+    def __post_init__(self) -> None:
+        self._index.update(
+            stage={s.id: s for s in self.stages},
+            part={p.id: p for p in self.parts},
+            point={t.id: t for t in self.test_points},
+            check={c.id: c for c in self.checks},
+            fault={f.id: f for f in self.faults},
+        )
+
+    def stage(self, stage_id: str) -> Stage:
+        return self._index["stage"][stage_id]
+
+    def part(self, part_id: str) -> Part:
+        return self._index["part"][part_id]
+
+    def test_point(self, point_id: str) -> TestPoint:
+        return self._index["point"][point_id]
+
+    def check(self, check_id: str) -> Check:
+        return self._index["check"][check_id]
+
+    def fault(self, fault_id: str) -> Fault:
+        return self._index["fault"][fault_id]
+
+    def has_check(self, check_id: str) -> bool:
+        return check_id in self._index["check"]
+
+    def parts_with_role(self, role: str) -> tuple[Part, ...]:
+        return tuple(p for p in self.parts if p.role == role)
+
+    def touches_primary(self, check: Check) -> bool:
+        """Whether a check puts probes on the primary side (hazardous when powered)."""
+        return any(self.stage(self.test_point(p).stage).side == "primary" for p in check.points)
+
+
+@dataclass(frozen=True)
+class KnowledgeBase:
+    families: dict[str, Family]
+
+    def family(self, family_id: str) -> Family:
+        try:
+            return self.families[family_id]
+        except KeyError:
+            known = ", ".join(sorted(self.families))
+            raise KeyError(f"unknown supply family '{family_id}' (known: {known})") from None
+
+
+# Failure modes each kind of part can suffer.
+KIND_MODES: dict[str, tuple[str, ...]] = {
+    "fuse": ("open",),
+    "thermistor": ("open",),
+    "bridge": ("short", "open"),
+    "electrolytic": ("dried", "short"),
+    "film_capacitor": ("short", "open"),
+    "resistor": ("open", "drift"),
+    "fast_diode": ("open", "short"),
+    "rectifier_diode": ("open", "short"),
+    "schottky": ("open", "short"),
+    "zener": ("open", "short"),
+    "mosfet": ("short", "open"),
+    "bjt": ("short", "open"),
+    "controller": ("dead", "short"),
+    "transformer": ("open",),
+    "optocoupler": ("open",),
+    "tl431": ("open", "short"),
+    "lead": ("open",),
+}
+
+# Signals the operating model produces; a check's "signal:NAME" target must be one of these.
+SIGNALS = (
+    "bulk_voltage", "bulk_ripple", "vcc_voltage", "vcc_behaviour", "switching_frequency",
+    "aux_voltage", "output_voltage", "output_loaded", "output_ripple", "plug_voltage",
+    "opto_led_voltage", "feedback_reference", "base_voltage", "drain_peak", "bridge_ac", "lamp", "residual_bulk", "dead",
+    "intermittent", "output_low", "output_high", "ticking", "whine", "hot", "fuse_blackened",
+    "bulged", "scorched", "burnt_smell",
+)

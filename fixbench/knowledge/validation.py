@@ -1,0 +1,83 @@
+"""Consistency rules for a family: every reference resolves, the power flow has no loop, every part
+that can fail has a cold check that tells its state, and the design block has what its roles need."""
+
+from __future__ import annotations
+
+from collections import Counter
+from typing import Callable
+
+import networkx as nx
+
+from fixbench.knowledge import model
+
+# Test points the shared checks probe; every family must name them.
+SHARED_POINTS = ("mains_plug", "bulk_plus", "primary_ground")
+DESIGN_KEYS = {
+    "controller": ("start_v", "stop_v", "vcc_clamp_v", "vcc_target_v", "switching_hz"),
+    "self_oscillating": ("switching_hz",),
+}
+COLD_INSTRUMENTS = ("ohmmeter", "diode_test", "capacitance", "esr")
+
+
+def _duplicates(ids: list[str]) -> list[str]:
+    return [item for item, count in Counter(ids).items() if count > 1]
+
+
+def validate_family(family: model.Family, fail: Callable[[str, str], Exception]) -> None:
+    """Raise ``fail(key, message)`` for the first inconsistency found."""
+    for key, items in (("stages", family.stages), ("parts", family.parts),
+                       ("test_points", family.test_points), ("checks", family.checks),
+                       ("faults", family.faults)):
+        dup = _duplicates([i.id for i in items])
+        if dup:
+            raise fail(key, f"id '{dup[0]}' appears twice")
+    stages = {s.id for s in family.stages}
+    for i, link in enumerate(family.links):
+        for end, name in ((link.source, "from"), (link.target, "to")):
+            if end not in stages:
+                raise fail(f"links[{i}].{name}", f"unknown stage '{end}'")
+    power = nx.DiGraph((l.source, l.target) for l in family.links if l.kind == "power")
+    if not nx.is_directed_acyclic_graph(power):
+        cycle = nx.find_cycle(power)
+        raise fail("links", f"power links form a loop: {' -> '.join(a for a, _ in cycle)}")
+    parts = {p.id: p for p in family.parts}
+    for i, part in enumerate(family.parts):
+        if part.stage not in stages:
+            raise fail(f"parts[{i}].stage", f"unknown stage '{part.stage}'")
+    points = {t.id for t in family.test_points}
+    for i, point in enumerate(family.test_points):
+        if point.stage not in stages:
+            raise fail(f"test_points[{i}].stage", f"unknown stage '{point.stage}'")
+    for name in SHARED_POINTS:
+        if name not in points:
+            raise fail("test_points", f"missing the shared test point '{name}'")
+    for i, check in enumerate(family.checks):
+        for point in check.points:
+            if point not in points:
+                raise fail(f"checks[{i}].points", f"check '{check.id}' names unknown test point '{point}'")
+        if check.target_kind == "part" and check.target_id not in parts:
+            raise fail(f"checks[{i}].target", f"check '{check.id}' names unknown part '{check.target_id}'")
+        if check.target_kind == "signal" and check.target_id not in model.SIGNALS:
+            raise fail(f"checks[{i}].target", f"check '{check.id}' names unknown signal '{check.target_id}'")
+        if check.power in ("cold", "lamp", "live") and not check.points:
+            raise fail(f"checks[{i}].points", f"check '{check.id}' touches the unit but names no test point")
+    for i, fault in enumerate(family.faults):
+        for key, part_id, mode in [("", fault.part, fault.mode)] + [
+                (f".collateral[{j}]", c.part, c.mode) for j, c in enumerate(fault.collateral)]:
+            if part_id not in parts:
+                raise fail(f"faults[{i}]{key}.part", f"unknown part '{part_id}'")
+            if mode not in model.KIND_MODES[parts[part_id].kind]:
+                allowed = ", ".join(model.KIND_MODES[parts[part_id].kind])
+                raise fail(f"faults[{i}]{key}.mode", f"'{mode}' is not a failure mode of a "
+                           f"{parts[part_id].kind} (use {allowed})")
+    cold_targets = {c.target_id for c in family.checks
+                    if c.target_kind == "part" and c.instrument in COLD_INSTRUMENTS}
+    for i, fault in enumerate(family.faults):
+        if fault.part not in cold_targets:
+            raise fail(f"faults[{i}].part", f"part '{fault.part}' can fail but no cold check tells its state")
+    drive = family.design.get("drive")
+    if drive not in DESIGN_KEYS:
+        raise fail("design.drive", f"must be one of: {', '.join(DESIGN_KEYS)}")
+    for key in DESIGN_KEYS[drive]:
+        if key not in family.design:
+            raise fail(f"design.{key}", f"missing (needed for drive = '{drive}')")

@@ -1,0 +1,79 @@
+"""The live readings of a healthy unit: the value and band at each signal the checks observe.
+
+Computed from the ratings and the family's design block with the relations in bulk_rail, flyback,
+semiconductors and outputs. Signals a check reads as an outcome (steady/cycling, lamp, symptoms)
+get the outcome a healthy unit shows.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from fixbench.physics import bulk_rail, flyback, outputs, semiconductors as semi
+from fixbench.physics.expectation import Expectation
+from fixbench.physics.ratings import Ratings
+from fixbench.physics.sizing import bulk_capacitance, input_power
+
+RESIDUAL_SAFE_V = 5.0  # volts left on the bulk capacitor that count as discharged [practice]
+BULK_RIPPLE_MARGIN = 1.5  # healthy ripple limit over the computed figure (tolerance, ageing) [practice]
+VCC_RUN_HEADROOM = 6.0  # Vcc of a running controller stays within this above its design point [practice]
+
+
+@dataclass(frozen=True)
+class HealthyUnit:
+    """Numeric expectations by signal, outcomes by signal, and the figures behind them."""
+
+    numeric: dict[str, Expectation]
+    outcome: dict[str, str]
+    figures: dict[str, Expectation]  # thresholds shown to the technician (start/stop Vcc...)
+
+
+def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
+    d = {k: v for k, v in design.items()}
+    peak = bulk_rail.rectified_peak(ratings.bench_mains)
+    peak_low = bulk_rail.rectified_peak(ratings.bench_low)
+    peak_high = bulk_rail.rectified_peak(ratings.bench_high)
+    capacitance = bulk_capacitance(ratings, d)
+    p_in = input_power(ratings)
+    v_min = bulk_rail.bulk_minimum(peak, p_in, ratings.mains_hz, capacitance)
+    ripple = peak - v_min
+    out_low, out_high = outputs.output_window(ratings.output_v)
+    f_sw = float(d["switching_hz"]) if ratings.switching_hz is None else ratings.switching_hz
+    f_tol = float(d.get("switching_tolerance", 0.10))
+    vor = flyback.reflected_voltage_design(ratings.universal or ratings.design_low > 150)
+    numeric = {
+        "bulk_voltage": Expectation(peak, peak_low, peak_high, "V"),
+        "bulk_ripple": Expectation(ripple, None, BULK_RIPPLE_MARGIN * ripple, "V"),
+        "switching_frequency": Expectation(f_sw, f_sw * (1 - f_tol), f_sw * (1 + f_tol), "Hz"),
+        "output_voltage": Expectation(ratings.output_v, out_low, out_high, "V"),
+        "output_loaded": Expectation(ratings.output_v, out_low, out_high, "V"),
+        "plug_voltage": Expectation(ratings.output_v, out_low, out_high, "V"),
+        "output_ripple": Expectation(None, None, outputs.ripple_limit(ratings.output_v), "V"),
+        "opto_led_voltage": Expectation(1.1, semi.OPTO_LED_VF_MIN_LIT, semi.OPTO_LED_VF_MAX, "V"),
+        "residual_bulk": Expectation(0.0, None, RESIDUAL_SAFE_V, "V"),
+        "bridge_ac": Expectation(ratings.bench_mains, ratings.bench_low, ratings.bench_high, "V"),
+        "drain_peak": Expectation(flyback.drain_peak(peak, vor), peak + 0.5 * vor,
+                                  0.95 * float(d.get("switch_rating_v", 650.0)), "V"),
+    }
+    figures = {}
+    if d.get("feedback") == "opto_tl431":
+        grade = semi.TL431_VREF["plain"]
+        numeric["feedback_reference"] = Expectation(grade.typical, grade.low, grade.high, "V")
+    if d.get("drive") == "controller":
+        start, stop, target = float(d["start_v"]), float(d["stop_v"]), float(d["vcc_target_v"])
+        numeric["vcc_voltage"] = Expectation(target, stop + 0.5, target + VCC_RUN_HEADROOM, "V")
+        numeric["aux_voltage"] = Expectation(target + 0.5, stop + 0.5, target + VCC_RUN_HEADROOM + 1, "V")
+        figures["vcc_start"] = Expectation(start, None, None, "V")
+        figures["vcc_stop"] = Expectation(stop, None, None, "V")
+    else:
+        # Base of a self-oscillating switch: the meter averages the drive to a few tenths of a volt,
+        # negative-going drive pulls it below zero [practice].
+        numeric["base_voltage"] = Expectation(-0.3, -2.0, 0.8, "V")
+    figures["bulk_minimum_at_load"] = Expectation(v_min, None, None, "V")
+    figures["bulk_capacitance"] = Expectation(capacitance, None, None, "F")
+    outcome = {
+        "vcc_behaviour": "steady", "lamp": "dim",
+        **{s: "no" for s in ("dead", "intermittent", "output_low", "output_high", "ticking", "whine",
+                             "hot", "fuse_blackened", "bulged", "scorched", "burnt_smell")},
+    }
+    return HealthyUnit(numeric, outcome, figures)

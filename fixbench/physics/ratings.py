@@ -1,0 +1,115 @@
+"""A unit's label ratings and the bench mains it is tested on, read from text.
+
+Nominal mains and their tolerance: 230 V +/-10 % (207-253 V), 120 V, 100 V [src: IEC 60038, Table 1].
+Universal-input adapters are designed for 85-265 V rms, 47-63 Hz [src: TI UCC28C4x datasheet design
+example].
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from fixbench.quantities import ReadingError, parse_quantity
+
+MAINS_TOLERANCE = 0.10  # IEC 60038 Table 1: +/-10 % at the supply terminals
+UNIVERSAL_LOW, UNIVERSAL_HIGH = 85.0, 265.0  # TI UCC28C4x design example
+UNIVERSAL_WORDS = {"universal", "100-240 v", "100-240v", "100-240", "85-265", "85-265 v", "90-264 v", "90-264"}
+RATING_KEYS = {"mains", "frequency", "output", "current", "bulk", "switching", "bench_mains"}
+
+
+@dataclass(frozen=True)
+class Ratings:
+    """What the label says, in SI units, plus the mains on the bench where the unit is tested."""
+
+    design_low: float  # lowest mains the unit is designed for, V rms
+    design_high: float  # highest mains, V rms
+    universal: bool
+    bench_mains: float  # the mains actually applied on the bench, V rms (nominal of the shop's supply)
+    mains_hz: float
+    output_v: float
+    output_a: float
+    bulk_f: float | None = None  # bulk capacitance if read off the capacitor
+    switching_hz: float | None = None
+
+    @property
+    def output_w(self) -> float:
+        return self.output_v * self.output_a
+
+    @property
+    def bench_low(self) -> float:
+        return self.bench_mains * (1 - MAINS_TOLERANCE)
+
+    @property
+    def bench_high(self) -> float:
+        return self.bench_mains * (1 + MAINS_TOLERANCE)
+
+    def as_text(self) -> dict[str, str]:
+        """The ratings as the text dict a case file holds (inverse of :func:`parse_ratings`)."""
+        from fixbench.quantities import format_quantity
+
+        text = {
+            "mains": "universal" if self.universal else format_quantity(self.bench_mains, "V"),
+            "frequency": format_quantity(self.mains_hz, "Hz"),
+            "output": format_quantity(self.output_v, "V"),
+            "current": format_quantity(self.output_a, "A"),
+        }
+        if self.universal:
+            text["bench_mains"] = format_quantity(self.bench_mains, "V")
+        if self.bulk_f is not None:
+            text["bulk"] = format_quantity(self.bulk_f, "F")
+        if self.switching_hz is not None:
+            text["switching"] = format_quantity(self.switching_hz, "Hz")
+        return text
+
+
+def _value(ratings: dict[str, str], key: str, unit: str, default: str | None = None) -> float | None:
+    text = ratings.get(key, default)
+    if text is None or str(text).strip() == "":
+        return None
+    try:
+        measured = parse_quantity(str(text), unit)
+    except ReadingError as err:
+        raise ReadingError(f"rating '{key}': {err}") from None
+    if measured.value <= 0 or measured.over_range:
+        raise ReadingError(f"rating '{key}': must be a positive value, got '{text}'")
+    return measured.value
+
+
+def parse_ratings(ratings: dict[str, str]) -> Ratings:
+    """Read label ratings typed as text: {"mains": "230 V" or "universal", "frequency": "50 Hz",
+    "output": "5 V", "current": "2 A", optional "bulk": "22 uF", "switching": "65 kHz",
+    "bench_mains": "230 V" (for universal units; default 230 V)}."""
+    unknown = set(ratings) - RATING_KEYS
+    if unknown:
+        raise ReadingError(f"unknown rating '{sorted(unknown)[0]}': use {', '.join(sorted(RATING_KEYS))}")
+    for key in ("mains", "output", "current"):
+        if not str(ratings.get(key, "")).strip():
+            raise ReadingError(f"rating '{key}' is missing")
+    mains_text = str(ratings["mains"]).strip().lower()
+    universal = mains_text in UNIVERSAL_WORDS
+    if universal:
+        design_low, design_high = UNIVERSAL_LOW, UNIVERSAL_HIGH
+        bench = _value(ratings, "bench_mains", "V", "230 V")
+    else:
+        nominal = _value(ratings, "mains", "V")
+        if not 90 <= nominal <= 264:
+            raise ReadingError(f"rating 'mains': {nominal:g} V is not a mains voltage (90 to 264 V, or 'universal')")
+        design_low, design_high = nominal * (1 - MAINS_TOLERANCE), nominal * (1 + MAINS_TOLERANCE)
+        bench = _value(ratings, "bench_mains", "V", f"{nominal} V")
+    hz_default = "60 Hz" if (not universal and design_high < 150) else "50 Hz"
+    hz = _value(ratings, "frequency", "Hz", hz_default)
+    if not 45 <= hz <= 65:
+        raise ReadingError(f"rating 'frequency': {hz:g} Hz is not a mains frequency (50 or 60 Hz)")
+    output_v = _value(ratings, "output", "V")
+    output_a = _value(ratings, "current", "A")
+    if not 1 <= output_v <= 60:
+        raise ReadingError(f"rating 'output': {output_v:g} V is outside what fixbench models (1 to 60 V)")
+    if not 0.05 <= output_a <= 20:
+        raise ReadingError(f"rating 'current': {output_a:g} A is outside what fixbench models (0.05 to 20 A)")
+    if output_v * output_a > 250:
+        raise ReadingError("ratings: more than 250 W is outside what fixbench models")
+    return Ratings(
+        design_low=design_low, design_high=design_high, universal=universal, bench_mains=bench,
+        mains_hz=hz, output_v=output_v, output_a=output_a,
+        bulk_f=_value(ratings, "bulk", "F"), switching_hz=_value(ratings, "switching", "Hz"),
+    )
