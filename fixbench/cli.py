@@ -38,7 +38,7 @@ def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
     parser.add_argument("--db", help="database URL or SQLite file (default: the user data folder; "
                         "or set FIXBENCH_DB)")
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
-    wanted = next((a for a in argv if not a.startswith("-")), None)
+    wanted = _command_word(argv)
     for name, module_name in COMMANDS.items():
         # Import only the command asked for; others get a placeholder line in --help.
         if name == wanted:
@@ -49,6 +49,19 @@ def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
         else:
             sub.add_parser(name, help=_help_line(module_name))
     return parser
+
+
+def _command_word(argv: list[str]) -> str | None:
+    """The command named on the line, skipping the global options and their values."""
+    skip = False
+    for word in argv:
+        if skip:
+            skip = False
+        elif word == "--db":
+            skip = True
+        elif not word.startswith("-"):
+            return word
+    return None
 
 
 def _help_line(module_name: str) -> str:
@@ -71,6 +84,10 @@ def main(argv: list[str] | None = None) -> int:
     except UsageError as err:
         print(f"fixbench {args.command}: {err}", file=sys.stderr)
         return 2
+    except BrokenPipeError:
+        # Output piped into a command that stopped reading (head, less): not an error of ours.
+        sys.stderr.close()
+        return 0
 
 
 if __name__ == "__main__":

@@ -73,11 +73,12 @@ def _check_value_text(reader: _Reader, key: str, unit: str) -> str | None:
     if text is None or text.startswith("rule:"):
         return text
     try:
-        measured = parse_quantity(text, unit)
+        parse_quantity(text, unit)  # the right kind of unit, if one is typed
+        typed = parse_quantity(text, None)  # was one typed at all?
     except ReadingError as err:
         raise reader.fail(key, f"{err}") from None
-    if measured.unit is None:
-        raise reader.fail(key, f"'{text}' has no unit (expected {unit})")
+    if typed.unit is None:
+        raise reader.fail(key, f"'{text}' has no unit (write it with its unit, e.g. '{text} {unit}')")
     return text
 
 

@@ -119,8 +119,10 @@ class Fault:
     collateral: tuple[Collateral, ...] = ()
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Family:
+    """One supply family. Compared and hashed by identity: each is loaded once per process."""
+
     id: str
     title: str
     summary: str
@@ -199,7 +201,7 @@ KIND_MODES: dict[str, tuple[str, ...]] = {
     "bjt": ("short", "open"),
     "controller": ("dead", "short"),
     "transformer": ("open",),
-    "optocoupler": ("open",),
+    "optocoupler": ("open", "short"),
     "tl431": ("open", "short"),
     "lead": ("open",),
 }
@@ -207,7 +209,7 @@ KIND_MODES: dict[str, tuple[str, ...]] = {
 # Signals the operating model produces; a check's "signal:NAME" target must be one of these.
 SIGNALS = (
     "bulk_voltage", "bulk_ripple", "vcc_voltage", "vcc_behaviour", "switching_frequency",
-    "aux_voltage", "output_voltage", "output_loaded", "output_ripple", "plug_voltage",
+    "output_voltage", "output_loaded", "output_ripple", "plug_voltage",
     "opto_led_voltage", "feedback_reference", "base_voltage", "drain_peak", "bridge_ac", "lamp", "residual_bulk", "dead",
     "intermittent", "output_low", "output_high", "ticking", "whine", "hot", "fuse_blackened",
     "bulged", "scorched", "burnt_smell",

@@ -62,13 +62,12 @@ def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
     if d.get("drive") == "controller":
         start, stop, target = float(d["start_v"]), float(d["stop_v"]), float(d["vcc_target_v"])
         numeric["vcc_voltage"] = Expectation(target, stop + 0.5, target + VCC_RUN_HEADROOM, "V")
-        numeric["aux_voltage"] = Expectation(target + 0.5, stop + 0.5, target + VCC_RUN_HEADROOM + 1, "V")
         figures["vcc_start"] = Expectation(start, None, None, "V")
         figures["vcc_stop"] = Expectation(stop, None, None, "V")
     else:
         # Base of a self-oscillating switch: the meter averages the drive to a few tenths of a volt,
         # negative-going drive pulls it below zero [practice].
-        numeric["base_voltage"] = Expectation(-0.3, -2.0, 0.8, "V")
+        numeric["base_voltage"] = Expectation(-0.3, -1.5, -0.05, "V")
     figures["bulk_minimum_at_load"] = Expectation(v_min, None, None, "V")
     figures["bulk_capacitance"] = Expectation(capacitance, None, None, "F")
     outcome = {

@@ -1,0 +1,38 @@
+"""`fixbench benchmark engine|store|ui`: the figures the project is held to, measured on this machine."""
+
+from __future__ import annotations
+
+from fixbench.cli import UsageError
+from fixbench.commands._output import print_json
+
+HELP = "measure the engine, the store or the user interface and print the figures"
+
+
+def add_arguments(parser) -> None:
+    parser.add_argument("part", choices=("engine", "store", "ui"), help="what to measure")
+    parser.add_argument("--json", action="store_true", help="print one JSON object for scripts")
+    parser.add_argument("--seed", type=int, default=0, help="random seed (engine, store)")
+    parser.add_argument("--units", type=int, default=150, help="simulated units per family (engine)")
+    parser.add_argument("--cases", type=int, default=100_000, help="cases in the temporary database (store, ui)")
+
+
+def run(args) -> int:
+    if args.part == "engine":
+        from fixbench.engine.benchmark import print_report, run_benchmark
+
+        if args.units < 1:
+            raise UsageError("--units must be at least 1")
+        result = run_benchmark(seed=args.seed, units_per_family=args.units)
+        print_json(result) if args.json else print_report(result)
+        return 0
+    if args.part == "store":
+        from fixbench.store.benchmark import print_store_report, run_store_benchmark
+
+        result = run_store_benchmark(cases=args.cases, seed=args.seed)
+        print_json(result) if args.json else print_store_report(result)
+        return 0
+    from fixbench.ui.benchmark import print_ui_report, run_ui_benchmark
+
+    result = run_ui_benchmark(cases=args.cases)
+    print_json(result) if args.json else print_ui_report(result)
+    return 0

@@ -1,0 +1,47 @@
+"""`fixbench expect`: what a healthy unit of these ratings reads at every check."""
+
+from __future__ import annotations
+
+from fixbench.commands._output import print_json, print_table
+from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
+from fixbench.engine.fault_model import cached_fault_model
+from fixbench.quantities import format_band, format_quantity
+
+HELP = "print the readings a healthy unit of given ratings shows at each test point"
+
+
+def add_arguments(parser) -> None:
+    add_unit_arguments(parser)
+    parser.add_argument("--json", action="store_true", help="print a JSON list of rows for scripts")
+
+
+def healthy_rows(family, ratings) -> list[dict]:
+    model = cached_fault_model(family, ratings)
+    rows = []
+    for cm in model.checks:
+        check = cm.check
+        if check.unit is None:
+            continue
+        rows.append({"point": "/".join(check.points), "check": check.id, "title": check.title,
+                     "instrument": check.instrument, "power": check.power, "unit": check.unit,
+                     "nominal": cm.healthy.nominal, "low": cm.healthy.low, "high": cm.healthy.high})
+    for name, figure in model.healthy.figures.items():
+        rows.append({"point": "vcc" if name.startswith("vcc") else "bulk_plus/primary_ground",
+                     "check": None, "title": name.replace("_", " "), "instrument": None, "power": None,
+                     "unit": figure.unit, "nominal": figure.nominal, "low": figure.low, "high": figure.high})
+    return rows
+
+
+def run(args) -> int:
+    family, ratings = family_and_ratings(args.family, ratings_text(args))
+    rows = healthy_rows(family, ratings)
+    if args.json:
+        print_json(rows)
+        return 0
+    print(f"{family.title}: {format_quantity(ratings.output_v, 'V')} {format_quantity(ratings.output_a, 'A')}, "
+          f"mains on the bench {format_quantity(ratings.bench_mains, 'V')} {format_quantity(ratings.mains_hz, 'Hz')}")
+    print_table(["check", "power", "points", "healthy", "band"],
+                [[r["title"], r["power"] or "", r["point"],
+                  format_quantity(r["nominal"], r["unit"]) if r["nominal"] is not None else "",
+                  format_band(r["low"], r["high"], r["unit"])] for r in rows])
+    return 0

@@ -1,0 +1,123 @@
+"""Choosing the next check: the most information about the root fault per minute of bench time,
+among the checks that are safe now.
+
+Safety comes before information. While any hypothesis that shorts the primary (bridge, bulk
+capacitor or switch shorted) keeps more than SHORT_THRESHOLD of the posterior, plain mains is never
+proposed: only cold checks and the series-lamp power-up. After the unit has been powered (lamp or
+live), a cold check that touches the primary is preceded by confirming the bulk capacitor is
+discharged.
+
+A conclusion must not hang on one reading: before stopping, the posterior is recomputed with each
+reading left out in turn; if the leading fault then falls below FRAGILE_BELOW, the search goes on
+(a reading may be a misread or a bad probe contact), and the check that was left out may be taken
+again.
+
+The rule is greedy information gain per cost, the test-selection rule of GDE [src: de Kleer &
+Williams, Diagnosing multiple faults, Artificial Intelligence 32, 1987: choose the measurement that
+minimises expected entropy], weighted by minutes so cheap checks go first.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from fixbench.engine.fault_model import FaultModel
+from fixbench.engine.inference import information_about_root, root_posterior
+
+SHORT_THRESHOLD = 0.02  # posterior of a primary short above which plain mains is not proposed
+CLEAR_ROOT = 0.95  # a root fault (or group) this likely ends the search
+MIN_INFORMATION = 0.03  # bits: below this a check is not worth its minutes
+FRAGILE_BELOW = 0.5  # leading fault's share without one reading, under which the conclusion is fragile
+COST_FLOOR = 0.5  # minutes added to every check's cost: even a question takes a moment
+DISCHARGE_CHECK = "bulk_discharged"
+
+
+@dataclass(frozen=True)
+class PlanState:
+    """What the planner must know beyond the posterior."""
+
+    done: frozenset[int]  # check indices read or skipped
+    powered_since_discharge: bool  # the unit was powered and the bulk not yet confirmed discharged
+    evidence: tuple[tuple[int, int], ...] = ()  # readings so far, for the fragility test
+    skipped: frozenset[int] = frozenset()
+
+
+def primary_short_chance(model: FaultModel, posterior: np.ndarray) -> float:
+    return float(posterior[model.primary_short].sum())
+
+
+def group_chances(model: FaultModel, posterior: np.ndarray) -> list[tuple[tuple[str, ...], float]]:
+    """Groups of indistinguishable root faults with their posterior, most likely first."""
+    roots = root_posterior(model, posterior)
+    index = {root: i for i, root in enumerate(model.roots)}
+    chances = [(group, float(sum(roots[index[r]] for r in group))) for group in model.groups]
+    return sorted(chances, key=lambda item: -item[1])
+
+
+def is_allowed(model: FaultModel, posterior: np.ndarray, check_index: int) -> bool:
+    """Whether proposing this check now is safe."""
+    check = model.checks[check_index].check
+    if check.power == "live":
+        return primary_short_chance(model, posterior) <= SHORT_THRESHOLD
+    return True
+
+
+def finished(model: FaultModel, posterior: np.ndarray) -> bool:
+    return group_chances(model, posterior)[0][1] >= CLEAR_ROOT
+
+
+def fragile_readings(model: FaultModel, posterior: np.ndarray, evidence: tuple[tuple[int, int], ...]) -> list[int]:
+    """Check indices whose single reading the leading fault depends on."""
+    from fixbench.engine.inference import posterior as posterior_of
+
+    group, _ = group_chances(model, posterior)[0]
+    fragile = []
+    for j, (check_index, _) in enumerate(evidence):
+        rest = evidence[:j] + evidence[j + 1:]
+        without = posterior_of(model, rest)
+        share = dict(group_chances(model, without)).get(group, 0.0)
+        if share < FRAGILE_BELOW:
+            fragile.append(check_index)
+    return fragile
+
+
+def scored_candidates(model: FaultModel, posterior: np.ndarray, state: PlanState,
+                      again: frozenset[int] = frozenset()) -> list[tuple[float, float, int]]:
+    """(score, bits, check index) for every allowed, informative check not yet done (or allowed
+    ``again``), best first."""
+    scored = []
+    for i, check_model in enumerate(model.checks):
+        if (i in state.done and i not in again) or not check_model.informative or not is_allowed(model, posterior, i):
+            continue
+        bits = information_about_root(model, posterior, i)
+        scored.append((bits / (check_model.check.minutes + COST_FLOOR), bits, i))
+    scored.sort(key=lambda item: (-item[0], item[2]))
+    return scored
+
+
+def choose(model: FaultModel, posterior: np.ndarray, state: PlanState) -> int | None:
+    """Index of the next check, or None when the search should stop."""
+    if finished(model, posterior):
+        fragile = fragile_readings(model, posterior, state.evidence)
+        if not fragile:
+            return None
+        # Confirm: a check that separates the leader from the rest, or the doubtful one again.
+        again = frozenset(fragile) - state.skipped
+        repeats = sum(1 for i, _ in state.evidence if i in again)
+        if repeats >= 2 * len(again):
+            again = frozenset()  # each doubtful check has been taken twice: do not loop on it
+        candidates = [c for c in scored_candidates(model, posterior, state, again) if c[1] > 0.0]
+        if not candidates:
+            return None
+    else:
+        candidates = [c for c in scored_candidates(model, posterior, state) if c[1] >= MIN_INFORMATION]
+        if not candidates:
+            return None
+    best = candidates[0][2]
+    check = model.checks[best].check
+    if (state.powered_since_discharge and check.power == "cold"
+            and model.family.touches_primary(check) and model.family.has_check(DISCHARGE_CHECK)):
+        return model.check_index(DISCHARGE_CHECK)
+    return best

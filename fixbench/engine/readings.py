@@ -1,0 +1,63 @@
+"""A reading as typed at the bench, read against the check it answers.
+
+Numbers go through the one quantity parser with the check's unit. Outcome checks accept their
+outcomes and the words people use for them ("y", "glows bright", "ticks"). A few meter words are
+understood on numeric checks: "OL"/"open" is over range, "beeps" on continuity or diode test is a
+near-dead short.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from fixbench.engine.fault_model import CheckModel
+from fixbench.quantities import ReadingError, format_quantity, parse_quantity
+
+SYNONYMS = {
+    "yes": ("y", "yes", "true", "1", "reported", "seen", "heard"),
+    "no": ("n", "no", "false", "0", "none", "not"),
+    "bright": ("bright", "glows bright", "full", "full brightness", "lit", "on"),
+    "dim": ("dim", "flash", "flash then dark", "flash then dim", "glows dim", "dark after flash"),
+    "off": ("off", "dark", "nothing", "no glow", "never lights"),
+    "steady": ("steady", "stable", "constant"),
+    "cycling": ("cycling", "cycles", "saw-tooth", "sawtooth", "up and down", "ticking", "pumping"),
+    "zero": ("zero", "0 v", "nothing"),
+}
+BEEP_WORDS = ("beeps", "beep", "continuity", "short", "shorted")
+BEEP_VALUE = {"ohmmeter": 0.5, "esr": 0.01, "diode_test": 0.0}
+
+
+@dataclass(frozen=True)
+class Reading:
+    check: str
+    text: str
+    value: float | None  # SI units; None for an outcome check
+    unit: str | None
+    outcome: str  # the class the reading falls in
+    in_band: bool
+
+    def shown(self) -> str:
+        return format_quantity(self.value, self.unit) if self.value is not None else self.outcome
+
+
+def read(check_model: CheckModel, text: str) -> Reading:
+    """Parse ``text`` for this check; ReadingError with a message for the person otherwise."""
+    check, classes = check_model.check, check_model.classes
+    cleaned = (text or "").strip()
+    if check.unit is None:
+        word = cleaned.lower()
+        for outcome in classes.names:
+            if word == outcome or word in SYNONYMS.get(outcome, ()):
+                return Reading(check.id, cleaned, None, None, outcome, outcome == check_model.healthy_outcome)
+        raise ReadingError(f"'{cleaned}' is not an answer here: pick one of {', '.join(classes.names)}")
+    if cleaned.lower() in BEEP_WORDS and check.instrument in BEEP_VALUE:
+        value = BEEP_VALUE[check.instrument]
+    else:
+        value = parse_quantity(cleaned, check.unit).value
+    if value < 0 and check.instrument in ("ohmmeter", "esr", "capacitance", "frequency", "ripple"):
+        raise ReadingError(f"'{cleaned}': a {check.instrument.replace('_', ' ')} reading cannot be negative")
+    if not math.isinf(value) and check.unit == "V" and abs(value) > 2000:
+        raise ReadingError(f"'{cleaned}': more than 2 kV cannot be on this unit; check the range and units")
+    outcome = classes.classify(value)
+    return Reading(check.id, cleaned, value, check.unit, outcome, check_model.healthy.contains(value))

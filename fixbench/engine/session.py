@@ -1,0 +1,168 @@
+"""A diagnosis in progress: the unit, the readings so far, and what follows from them.
+
+Immutable: every reading, skip or undo returns a new state, so the GUI can hand states between
+threads and the store can save each one as it happens. The expensive part (the fault model) is
+built once per unit and shared by all states of the same case.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+from functools import cached_property
+
+import numpy as np
+
+from fixbench.knowledge.model import Check, Family
+from fixbench.physics.expectation import Expectation
+from fixbench.physics.ratings import Ratings
+
+from fixbench.engine import planner
+from fixbench.engine.cautions import cautions_for, hazard_class
+from fixbench.engine.conclusion import Conclusion, conclude
+from fixbench.engine.fault_model import FaultModel, cached_fault_model
+from fixbench.engine.hypotheses import NO_FAULT
+from fixbench.engine.inference import posterior, root_posterior
+from fixbench.engine.readings import Reading, read
+
+SHOWN_SUSPECTS = 12
+
+
+@dataclass(frozen=True)
+class Suspect:
+    fault: str
+    title: str
+    part: str | None
+    stage: str | None
+    probability: float
+    group: tuple[str, ...]  # root faults no check can tell from this one (itself included)
+
+
+@dataclass(frozen=True)
+class Proposal:
+    check: Check
+    title: str
+    power: str
+    expected: Expectation | None
+    expected_outcome: str | None
+    minutes: float
+    information: float  # bits about the root fault
+    hazard: str
+    cautions: tuple[str, ...]
+    reason: str
+
+
+@dataclass(frozen=True)
+class DiagnosisState:
+    model: FaultModel
+    readings: tuple[Reading, ...] = ()
+    skipped: tuple[str, ...] = ()
+    _evidence: tuple[tuple[int, int], ...] = field(default=(), repr=False)
+
+    @property
+    def family(self) -> Family:
+        return self.model.family
+
+    def proposal_for(self, check_id: str) -> Proposal:
+        """The step card for any check of the family (the technician may pick one off the list)."""
+        i = self.model.check_index(check_id)
+        return self._proposal(i, 0.0, "chosen by the technician")
+
+    def with_reading(self, check_id: str, text: str) -> "DiagnosisState":
+        i = self.model.check_index(check_id)
+        reading = read(self.model.checks[i], text)
+        k = self.model.checks[i].classes.names.index(reading.outcome)
+        return replace(self, readings=self.readings + (reading,), _evidence=self._evidence + ((i, k),))
+
+    def skip(self, check_id: str) -> "DiagnosisState":
+        self.model.check_index(check_id)
+        return replace(self, skipped=self.skipped + (check_id,))
+
+    def undo(self) -> "DiagnosisState":
+        if not self.readings:
+            return self
+        return replace(self, readings=self.readings[:-1], _evidence=self._evidence[:-1])
+
+    @cached_property
+    def posterior(self) -> np.ndarray:
+        return posterior(self.model, self._evidence)
+
+    @cached_property
+    def suspects(self) -> tuple[Suspect, ...]:
+        roots = root_posterior(self.model, self.posterior)
+        order = np.argsort(-roots, kind="stable")[:SHOWN_SUSPECTS]
+        family = self.family
+        out = []
+        for r in order:
+            root = self.model.roots[r]
+            if root == NO_FAULT:
+                out.append(Suspect(root, "No fault in the supply (device or its cable)", None, None,
+                                   float(roots[r]), self.model.group_of(root)))
+                continue
+            fault = family.fault(root)
+            out.append(Suspect(root, fault.title, fault.part, family.part(fault.part).stage,
+                               float(roots[r]), self.model.group_of(root)))
+        return tuple(out)
+
+    @cached_property
+    def stage_chances(self) -> dict[str, float]:
+        """Chance that each stage holds the root fault: what the stage picture is shaded by."""
+        roots = root_posterior(self.model, self.posterior)
+        chances = {s.id: 0.0 for s in self.family.stages}
+        for r, root in enumerate(self.model.roots):
+            if root != NO_FAULT:
+                chances[self.family.part(self.family.fault(root).part).stage] += float(roots[r])
+        return chances
+
+    @property
+    def powered_since_discharge(self) -> bool:
+        powered = False
+        for reading in self.readings:
+            check = self.family.check(reading.check)
+            if check.power in ("live", "lamp"):
+                powered = True
+            elif check.id == planner.DISCHARGE_CHECK:
+                powered = False
+        return powered
+
+    def _plan_state(self) -> planner.PlanState:
+        skipped = frozenset(self.model.check_index(c) for c in self.skipped)
+        done = {i for i, _ in self._evidence} | skipped
+        return planner.PlanState(frozenset(done), self.powered_since_discharge, self._evidence, skipped)
+
+    @cached_property
+    def next_check(self) -> Proposal | None:
+        state = self._plan_state()
+        i = planner.choose(self.model, self.posterior, state)
+        if i is None:
+            return None
+        check = self.model.checks[i].check
+        if check.id == planner.DISCHARGE_CHECK and state.powered_since_discharge:
+            return self._proposal(i, 0.0, "the unit was powered: confirm the bulk capacitor is discharged first")
+        bits = planner.information_about_root(self.model, self.posterior, i)
+        return self._proposal(i, bits, f"tells {bits:.2f} bits about the fault in {check.minutes:g} min")
+
+    def _proposal(self, i: int, bits: float, reason: str) -> Proposal:
+        check_model = self.model.checks[i]
+        check = check_model.check
+        return Proposal(check, check.title, check.power, check_model.healthy, check_model.healthy_outcome,
+                        check.minutes, bits, hazard_class(self.family, check, self.model.ratings.output_v),
+                        cautions_for(self.family, check), reason)
+
+    @property
+    def live_allowed(self) -> bool:
+        return planner.primary_short_chance(self.model, self.posterior) <= planner.SHORT_THRESHOLD
+
+    @cached_property
+    def conclusion(self) -> Conclusion | None:
+        if self.next_check is not None:
+            return None
+        return conclude(self.model, self.posterior)
+
+    def final_conclusion(self) -> Conclusion:
+        """The conclusion as it stands now, even if the planner would measure further."""
+        return conclude(self.model, self.posterior)
+
+
+def start_diagnosis(family: Family, ratings: Ratings, prior_counts: dict[str, int] | None = None) -> DiagnosisState:
+    counts = tuple(sorted((prior_counts or {}).items()))
+    return DiagnosisState(cached_fault_model(family, ratings, counts))

@@ -1,0 +1,69 @@
+"""The case list as the ui shows it: one page at a time, sorted in the database by any column."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from datetime import datetime
+
+from sqlalchemy import func, select
+
+from fixbench.store.database import Store
+from fixbench.store.errors import StoreInputError
+from fixbench.store.models import Case, Device, Technician
+
+PAGE_SIZE = 200
+
+# column name shown -> what it sorts by. Ties break on case id so pages never overlap.
+SORTABLE = {
+    "ticket": Case.ticket_ref,
+    "opened": Case.opened_at,
+    "closed": Case.closed_at,
+    "status": Case.status,
+    "outcome": Case.outcome,
+    "family": Case.family_id,
+    "technician": Case.technician_id,
+    "device": Case.device_id,
+    "minutes": Case.bench_minutes,
+    "fault": Case.confirmed_fault,
+}
+
+
+@dataclass(frozen=True)
+class CaseRow:
+    id: int
+    ticket: str
+    opened: datetime
+    closed: datetime | None
+    status: str
+    outcome: str | None
+    family: str
+    technician: str
+    make: str
+    model: str
+    minutes: int | None
+    fault: str | None
+
+
+def case_count(store: Store) -> int:
+    with store.session() as session:
+        return session.scalar(select(func.count()).select_from(Case))
+
+
+def case_page(store: Store, sort: str = "opened", descending: bool = True, offset: int = 0,
+              limit: int = PAGE_SIZE) -> list[CaseRow]:
+    """One page of the case list; the sort and the page are done by an index in the database."""
+    if sort not in SORTABLE:
+        raise StoreInputError(f"cannot sort by {sort}; choose from {', '.join(SORTABLE)}")
+    key = SORTABLE[sort]
+    order = [key.desc(), Case.id.desc()] if descending else [key.asc(), Case.id.asc()]
+    # Page the ids alone first (an index walk), then join names for those 200 rows only.
+    page = select(Case.id).order_by(*order).offset(offset).limit(limit).subquery()
+    query = (select(Case.id, Case.ticket_ref, Case.opened_at, Case.closed_at, Case.status,
+                    Case.outcome, Case.family_id, Technician.name, Device.make, Device.model,
+                    Case.bench_minutes, Case.confirmed_fault)
+             .join(page, page.c.id == Case.id)
+             .join(Technician, Technician.id == Case.technician_id)
+             .join(Device, Device.id == Case.device_id)
+             .order_by(*order))
+    with store.engine.connect() as connection:
+        return [CaseRow(*row) for row in connection.execute(query)]

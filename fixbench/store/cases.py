@@ -1,0 +1,181 @@
+"""Recording a case as it happens at the bench: open, readings with suspects, repairs, close.
+
+Every function here is one transaction that commits before it returns, so a reading is kept the
+moment it is entered and a killed process loses nothing already returned. A closed case refuses
+all of these; corrections go through :mod:`fixbench.store.amendments`.
+
+Status moves forward through intake -> diagnosing -> repairing -> verifying -> closed; a failed
+verification may send it back to repairing, and a case may be closed from any open status (a
+unit returned unrepaired never reaches repairing).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from datetime import UTC, datetime
+
+from sqlalchemy import func, select
+from sqlalchemy.orm import Session
+
+from fixbench.store.case_flags import refresh_comebacks
+from fixbench.store.database import Store
+from fixbench.store.errors import ClosedCaseError, StoreInputError, checked_text
+from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, Reading, RepairAction, Suspect,
+                                   Verification)
+
+# status -> statuses it may move to (besides "closed", which close_case does).
+NEXT_STATUS: dict[str, tuple[str, ...]] = {
+    "intake": ("diagnosing",),
+    "diagnosing": ("repairing",),
+    "repairing": ("verifying",),
+    "verifying": ("repairing",),
+    "closed": (),
+}
+
+
+@dataclass(frozen=True)
+class RankedSuspect:
+    """One entry of the engine's ranked list after a reading."""
+
+    fault_id: str
+    probability: float
+    part_id: str | None = None
+    stage_id: str | None = None
+
+    @classmethod
+    def from_engine(cls, suspect: object) -> RankedSuspect:
+        """From an engine suspect (``.fault``, ``.part``, ``.stage``, ``.probability``)."""
+
+        def ident(thing: object) -> str | None:
+            return None if thing is None else str(getattr(thing, "id", thing))
+
+        return cls(fault_id=ident(suspect.fault), probability=float(suspect.probability),
+                   part_id=ident(getattr(suspect, "part", None)),
+                   stage_id=ident(getattr(suspect, "stage", None)))
+
+
+def utc_now() -> datetime:
+    return datetime.now(UTC).replace(tzinfo=None)
+
+
+def open_case(store: Store, *, ticket_ref: str, device_id: int, technician_id: int,
+              family_id: str, ratings: Mapping[str, str], customer_ref: str | None = None,
+              notes: str = "", opened_at: datetime | None = None) -> int:
+    """Start a case at intake and return its id."""
+    case = Case(ticket_ref=checked_text(ticket_ref, "ticket reference"),
+                customer_ref=None if customer_ref is None else checked_text(customer_ref,
+                                                                           "customer reference"),
+                device_id=device_id, technician_id=technician_id,
+                family_id=checked_text(family_id, "supply family"),
+                ratings={checked_text(k, "rating name"): checked_text(v, "rating")
+                         for k, v in ratings.items()},
+                status="intake", notes=checked_text(notes, "notes"),
+                opened_at=opened_at or utc_now())
+    with store.session() as session:
+        session.add(case)
+        session.flush()
+        # The unit coming back may make an earlier repair of it a comeback.
+        refresh_comebacks(session, device_id)
+        return case.id
+
+
+def _open_case(session: Session, case_id: int) -> Case:
+    case = session.get(Case, case_id, with_for_update=session.bind.dialect.name != "sqlite")
+    if case is None:
+        raise StoreInputError(f"there is no case {case_id}")
+    if case.status == "closed":
+        raise ClosedCaseError(f"case {case.ticket_ref} is closed; record an amendment instead")
+    return case
+
+
+def add_reading(store: Store, case_id: int, *, check_id: str, typed: str, value: float | None,
+                unit: str | None, outcome: str | None, suspects: Sequence[RankedSuspect],
+                entered_at: datetime | None = None) -> int:
+    """Keep one reading (as typed and as parsed) with the suspects ranked after it."""
+    with store.session() as session:
+        case = _open_case(session, case_id)
+        last = session.scalar(select(func.max(Reading.seq)).where(Reading.case_id == case_id))
+        reading = Reading(case_id=case_id, seq=(last or 0) + 1,
+                          check_id=checked_text(check_id, "check"),
+                          typed=checked_text(typed, "reading"), value=value,
+                          unit=None if unit is None else checked_text(unit, "unit"),
+                          outcome=None if outcome is None else checked_text(outcome, "outcome"),
+                          entered_at=entered_at or utc_now())
+        reading.suspects = [
+            Suspect(rank=rank, fault_id=checked_text(s.fault_id, "fault"), part_id=s.part_id,
+                    stage_id=s.stage_id, probability=s.probability)
+            for rank, s in enumerate(suspects, start=1)]
+        session.add(reading)
+        if case.status == "intake":
+            case.status = "diagnosing"
+        case.top_suspect_fault = reading.suspects[0].fault_id if reading.suspects else None
+        session.flush()
+        return reading.id
+
+
+def move_case(store: Store, case_id: int, status: str) -> None:
+    """Move an open case to the next status it may take."""
+    with store.session() as session:
+        case = _open_case(session, case_id)
+        if status not in NEXT_STATUS[case.status]:
+            raise StoreInputError(f"a case in {case.status} cannot move to {status}")
+        case.status = status
+
+
+def add_repair_action(store: Store, case_id: int, *, part_id: str, action: str,
+                      fault_id: str | None = None, parts_cost_cents: int = 0, note: str = "",
+                      done_at: datetime | None = None) -> int:
+    """Keep a part replaced or tested; moves a diagnosing case to repairing."""
+    if action not in REPAIR_KINDS:
+        raise StoreInputError(f"a repair action is one of {', '.join(REPAIR_KINDS)}")
+    if parts_cost_cents < 0:
+        raise StoreInputError("parts cost cannot be negative")
+    with store.session() as session:
+        case = _open_case(session, case_id)
+        if case.status in ("intake", "diagnosing", "verifying"):
+            case.status = "repairing"
+        repair = RepairAction(case_id=case_id, part_id=checked_text(part_id, "part"),
+                              fault_id=fault_id, action=action, parts_cost_cents=parts_cost_cents,
+                              note=checked_text(note, "note"), done_at=done_at or utc_now())
+        session.add(repair)
+        session.flush()
+        return repair.id
+
+
+def add_verification(store: Store, case_id: int, *, check_id: str, typed: str,
+                     value: float | None, unit: str | None, outcome: str | None, passed: bool,
+                     entered_at: datetime | None = None) -> int:
+    """Keep a reading taken after the repair; moves the case to verifying."""
+    with store.session() as session:
+        case = _open_case(session, case_id)
+        case.status = "verifying"
+        if not passed:
+            case.failed_verification = True
+        row = Verification(case_id=case_id, check_id=checked_text(check_id, "check"),
+                           typed=checked_text(typed, "reading"), value=value, unit=unit,
+                           outcome=outcome, passed=bool(passed), entered_at=entered_at or utc_now())
+        session.add(row)
+        session.flush()
+        return row.id
+
+
+def close_case(store: Store, case_id: int, *, outcome: str, bench_minutes: int,
+               confirmed_fault: str | None = None, confirmed_part: str | None = None,
+               confirmed_stage: str | None = None, closed_at: datetime | None = None) -> None:
+    """Close a case with its outcome; after this it changes only by amendment."""
+    if outcome not in OUTCOMES:
+        raise StoreInputError(f"an outcome is one of {', '.join(OUTCOMES)}")
+    if bench_minutes < 0:
+        raise StoreInputError("bench minutes cannot be negative")
+    with store.session() as session:
+        case = _open_case(session, case_id)
+        case.status = "closed"
+        case.outcome = outcome
+        case.bench_minutes = bench_minutes
+        case.confirmed_fault = confirmed_fault
+        case.confirmed_part = confirmed_part
+        case.confirmed_stage = confirmed_stage
+        case.closed_at = closed_at or utc_now()
+        session.flush()
+        refresh_comebacks(session, case.device_id)

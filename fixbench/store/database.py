@@ -1,0 +1,109 @@
+"""The one session factory: opens a shop database, checks it, migrates it, and hands out sessions.
+
+Everything about how SQLite is driven lives here, set once per connection by event listeners:
+WAL journal, ``synchronous=FULL`` (a committed reading survives power loss, not only a crash),
+foreign keys on, a busy timeout, and ``BEGIN IMMEDIATE`` for every transaction so two benches
+writing the same file queue for the write lock instead of failing with "database is locked" on
+upgrade from a read lock. The recipe (``isolation_level=None`` on the DBAPI connection, BEGIN
+emitted from the "begin" event) is SQLAlchemy's documented one for pysqlite ("Serializable
+isolation / Savepoints / Transactional DDL" in the SQLite dialect docs).
+"""
+
+from __future__ import annotations
+
+import sqlite3
+from collections.abc import Iterator
+from contextlib import contextmanager
+from dataclasses import dataclass
+from pathlib import Path
+
+from sqlalchemy import Engine, create_engine, event
+from sqlalchemy.exc import DatabaseError, OperationalError
+from sqlalchemy.orm import Session, sessionmaker
+
+from fixbench.store.errors import StoreFileError
+from fixbench.store.location import resolve_url, sqlite_path
+
+BUSY_TIMEOUT_MS = 30_000
+SQLITE_PRAGMAS = (
+    "PRAGMA journal_mode=WAL",
+    "PRAGMA synchronous=FULL",
+    "PRAGMA foreign_keys=ON",
+    f"PRAGMA busy_timeout={BUSY_TIMEOUT_MS}",
+)
+
+
+@dataclass(frozen=True)
+class Store:
+    """An open shop database: the engine, a session factory, and the SQLite file if there is one."""
+
+    engine: Engine
+    sessions: sessionmaker[Session]
+    path: Path | None
+
+    @property
+    def dialect(self) -> str:
+        return self.engine.dialect.name
+
+    @contextmanager
+    def session(self) -> Iterator[Session]:
+        """A session whose work is committed when the block ends without an error."""
+        with self.sessions.begin() as session:
+            yield session
+
+    def close(self) -> None:
+        self.engine.dispose()
+
+
+def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True) -> Store:
+    """Open (creating if needed) the shop database, refusing damaged or foreign files untouched."""
+    url = resolve_url(url_or_path)
+    path = sqlite_path(url)
+    if path is not None:
+        from fixbench.store.health import check_sqlite_file
+
+        check_sqlite_file(path)
+        path.parent.mkdir(parents=True, exist_ok=True)
+    engine = _make_engine(url)
+    store = Store(engine=engine, sessions=sessionmaker(engine, expire_on_commit=False), path=path)
+    if migrate:
+        from fixbench.store.migrate import upgrade_to_head
+
+        try:
+            upgrade_to_head(store)
+        except (DatabaseError, OperationalError) as err:
+            engine.dispose()
+            if path is not None and _is_damage(err):
+                from fixbench.store.backup import newest_backup
+
+                raise StoreFileError(path, "is damaged", newest_backup(path)) from err
+            raise
+    return store
+
+
+def _is_damage(err: Exception) -> bool:
+    text = str(getattr(err, "orig", err)).lower()
+    return "malformed" in text or "not a database" in text or "disk image" in text
+
+
+def _make_engine(url: str) -> Engine:
+    if not url.startswith("sqlite"):
+        return create_engine(url, pool_pre_ping=True)
+    engine = create_engine(url, connect_args={"timeout": BUSY_TIMEOUT_MS / 1000})
+    install_sqlite_listeners(engine)
+    return engine
+
+
+def install_sqlite_listeners(engine: Engine) -> None:
+    """Set the pragmas on every new connection and make every transaction BEGIN IMMEDIATE."""
+
+    @event.listens_for(engine, "connect")
+    def _on_connect(dbapi_connection: sqlite3.Connection, _record: object) -> None:
+        # Let SQLAlchemy's "begin" event own transaction starts instead of pysqlite.
+        dbapi_connection.isolation_level = None
+        for pragma in SQLITE_PRAGMAS:
+            dbapi_connection.execute(pragma)
+
+    @event.listens_for(engine, "begin")
+    def _on_begin(connection) -> None:
+        connection.exec_driver_sql("BEGIN IMMEDIATE")

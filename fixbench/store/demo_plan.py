@@ -1,0 +1,174 @@
+"""The demo shop's history without its readings: people, devices, dates, outcomes, comebacks.
+
+Everything here is fictional and deterministic for a seed: a made-up shop with four technicians
+and two trainees, invented device makes and models, about two years of cases arriving on working
+days, faults drawn in proportion to the knowledge base's prior weights, bench minutes from a
+log-normal spread per technician (repair times are commonly modelled as log-normal; Kline,
+"The Lognormal Distribution as a Repair-Time Model", 1984), some units that come back within 90
+days and some that are not worth repairing. The readings of each case come from the engine, in
+:mod:`fixbench.store.demo_shop`.
+"""
+
+from __future__ import annotations
+
+import random
+from dataclasses import dataclass
+from datetime import datetime, timedelta
+
+SHOP_END = datetime(2025, 6, 30, 18, 0)
+SHOP_DAYS = 730
+TECHNICIANS = (("Mara Quellby", 26.0), ("Oskar Venn", 34.0), ("Ilse Farrow", 30.0),
+               ("Teodor Malk", 40.0))  # name, median bench minutes for an ordinary repair
+TRAINEES = ("Juno Pellory", "Ravi Ashcombe")
+# make -> (model, kind, ratings printed on its label)
+MODELS = {
+    "Quillon": (("QX-5", "phone charger", {"output": "5 V", "current": "1 A"}),
+                ("QX-10", "phone charger", {"output": "5 V", "current": "2 A"})),
+    "Tarnwick": (("TW-24", "usb adapter", {"output": "5 V", "current": "2.4 A"}),
+                 ("TW-Duo", "usb adapter", {"output": "9 V", "current": "2 A"})),
+    "Pellamor": (("PM-65", "laptop adapter", {"output": "19 V", "current": "3.42 A"}),
+                 ("PM-45", "laptop adapter", {"output": "20 V", "current": "2.25 A"})),
+    "Zintrek": (("Z-Mini", "phone charger", {"output": "5 V", "current": "1 A"}),),
+    "Halvenor": (("HV-90", "laptop adapter", {"output": "19.5 V", "current": "4.62 A"}),),
+}
+MAINS = {"mains": "230 V", "frequency": "50 Hz"}
+OUTCOME_WEIGHTS = {"repaired": 80, "not_economical": 8, "no_fault_found": 6,
+                   "returned_unrepaired": 6}
+COMEBACK_CHANCE = 0.06
+CASES_PER_WORKING_DAY = 1.1
+
+
+@dataclass(frozen=True)
+class FaultChoice:
+    family_id: str
+    fault_id: str
+    part_id: str
+    stage_id: str
+    weight: float
+    part_cost_cents: int
+
+
+@dataclass(frozen=True)
+class DemoDevice:
+    number: int
+    make: str
+    model: str
+    kind: str
+    label_ratings: dict
+
+
+@dataclass(frozen=True)
+class DemoCase:
+    ticket: str
+    opened_at: datetime
+    technician: str
+    device: DemoDevice
+    fault: FaultChoice
+    outcome: str
+    bench_minutes: int
+    comeback_of: str | None
+
+
+@dataclass(frozen=True)
+class DemoPractice:
+    trainee: str
+    scenario: str
+    attempted_at: datetime
+    checks_used: int
+    minutes: float
+    score: float
+    safety_slips: int
+
+
+def catalogue_from_knowledge(kb) -> list[FaultChoice]:
+    """Every fault of every family in the knowledge base, with its prior weight and part cost."""
+    choices = []
+    for family in kb.families.values():
+        parts = {part.id: part for part in family.parts}
+        for fault in family.faults:
+            part = parts[fault.part]
+            choices.append(FaultChoice(family.id, fault.id, part.id, part.stage, fault.weight,
+                                       round(part.cost * 100)))
+    return choices
+
+
+def plan_shop(seed: int, catalogue: list[FaultChoice]) -> list[DemoCase]:
+    """About two years of cases, oldest first, for ``seed``."""
+    rng = random.Random(seed)
+    weights = [choice.weight for choice in catalogue]
+    devices: list[DemoDevice] = []
+    cases: list[DemoCase] = []
+    comebacks: dict[datetime, list[DemoCase]] = {}
+    day = (SHOP_END - timedelta(days=SHOP_DAYS)).replace(hour=9, minute=0)
+    while day < SHOP_END:
+        if day.weekday() < 5:
+            arrivals = [None] * _poisson(rng, CASES_PER_WORKING_DAY)
+            arrivals += comebacks.pop(day.date(), [])
+            for slot, earlier in enumerate(arrivals):
+                opened = day + timedelta(minutes=35 * slot + rng.randrange(30))
+                if earlier is None:
+                    device = _new_device(rng, len(devices) + 1)
+                    devices.append(device)
+                    fault = rng.choices(catalogue, weights)[0]
+                else:
+                    device, fault = earlier.device, _comeback_fault(rng, earlier, catalogue)
+                case = _plan_case(rng, len(cases) + 1, opened, device, fault, earlier)
+                cases.append(case)
+                if case.outcome == "repaired" and rng.random() < COMEBACK_CHANCE:
+                    back = (opened + timedelta(days=rng.randrange(8, 85))).date()
+                    comebacks.setdefault(back, []).append(case)
+        day += timedelta(days=1)
+    return cases
+
+
+def _poisson(rng: random.Random, mean: float) -> int:
+    # Knuth's multiplication method (TAOCP vol. 2, 3.4.1): fine for a mean near 1.
+    limit, count, product = pow(2.718281828459045, -mean), 0, rng.random()
+    while product > limit:
+        count += 1
+        product *= rng.random()
+    return count
+
+
+def _new_device(rng: random.Random, number: int) -> DemoDevice:
+    make = rng.choice(sorted(MODELS))
+    model, kind, label = rng.choice(MODELS[make])
+    return DemoDevice(number, make, model, kind, {**MAINS, **label})
+
+
+def _comeback_fault(rng: random.Random, earlier: DemoCase, catalogue: list[FaultChoice]):
+    # A comeback is often the same weak spot failing again, else any fault of the same family.
+    if rng.random() < 0.5:
+        return earlier.fault
+    same_family = [c for c in catalogue if c.family_id == earlier.fault.family_id]
+    return rng.choices(same_family, [c.weight for c in same_family])[0]
+
+
+def _plan_case(rng, number, opened, device, fault, earlier) -> DemoCase:
+    name, median = rng.choice(TECHNICIANS)
+    outcome = rng.choices(list(OUTCOME_WEIGHTS), list(OUTCOME_WEIGHTS.values()))[0]
+    factor = {"repaired": 1.0, "not_economical": 0.6, "no_fault_found": 0.8,
+              "returned_unrepaired": 0.4}[outcome]
+    minutes = max(5, round(rng.lognormvariate(0, 0.45) * median * factor))
+    return DemoCase(ticket=f"W{opened:%y%m}-{number:04d}", opened_at=opened, technician=name,
+                    device=device, fault=fault, outcome=outcome, bench_minutes=minutes,
+                    comeback_of=None if earlier is None else earlier.ticket)
+
+
+def plan_practice(seed: int, catalogue: list[FaultChoice]) -> list[DemoPractice]:
+    """Trainees' practice rounds: weekly, improving in score and safety over the two years."""
+    rng = random.Random(seed + 1)
+    rounds = []
+    start = SHOP_END - timedelta(days=SHOP_DAYS)
+    for week in range(SHOP_DAYS // 7):
+        progress = week / (SHOP_DAYS // 7)
+        for trainee in TRAINEES:
+            scenario = rng.choices(catalogue, [c.weight for c in catalogue])[0]
+            checks = max(2, round(rng.gauss(9 - 4 * progress, 1.5)))
+            rounds.append(DemoPractice(
+                trainee=trainee, scenario=scenario.fault_id,
+                attempted_at=start + timedelta(weeks=week, days=4, hours=16),
+                checks_used=checks, minutes=round(max(4.0, rng.gauss(30 - 14 * progress, 4)), 1),
+                score=round(min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 2),
+                safety_slips=max(0, round(rng.gauss(1.5 - 1.4 * progress, 0.6)))))
+    return rounds

@@ -1,0 +1,118 @@
+"""Taking records out of the store: cases of a period as CSV, and one case as a re-runnable JSON.
+
+The CSV is for the owner's spreadsheet, so it needs the owner's passphrase (it carries every
+customer reference). Cells that a spreadsheet would run as a formula (starting with = + - @ or a
+tab/CR) get a leading apostrophe (OWASP, "CSV Injection").
+
+The case JSON holds what ``fixbench diagnose`` reads (``family``, ``ratings`` and the ``readings``
+in the order taken, each as the check id and the text typed), so a past case can be re-run;
+the rest of the record travels under ``"record"``, which diagnose ignores.
+"""
+
+from __future__ import annotations
+
+import csv
+import json
+from datetime import datetime
+from typing import Any, TextIO
+
+from sqlalchemy import func, select
+
+from fixbench.store.database import Store
+from fixbench.store.errors import StoreInputError
+from fixbench.store.models import Case, Device, Reading, RepairAction, Technician, Verification
+from fixbench.store.owner import require_owner
+
+CASE_JSON_FORMAT = "fixbench-case"
+CASE_JSON_VERSION = 1
+CSV_COLUMNS = ("ticket", "customer", "opened_at", "closed_at", "status", "outcome", "family",
+               "make", "model", "kind", "technician", "bench_minutes", "confirmed_fault",
+               "confirmed_part", "confirmed_stage", "engine_first_suspect", "parts_cost",
+               "readings")
+_FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+
+
+def _cell(value: Any) -> Any:
+    if isinstance(value, datetime):
+        return value.isoformat(sep=" ", timespec="seconds")
+    if isinstance(value, str) and value.startswith(_FORMULA_STARTS):
+        return "'" + value
+    return "" if value is None else value
+
+
+def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datetime,
+                     passphrase: str | None) -> int:
+    """Write cases opened in [since, until) to ``out`` as CSV; returns the number of cases."""
+    require_owner(store, passphrase)
+    if until <= since:
+        raise StoreInputError("the end of the period must come after its start")
+    cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
+            .where(RepairAction.case_id == Case.id).scalar_subquery())
+    readings = (select(func.count()).where(Reading.case_id == Case.id).scalar_subquery())
+    query = (select(Case.ticket_ref, Case.customer_ref, Case.opened_at, Case.closed_at,
+                    Case.status, Case.outcome, Case.family_id, Device.make, Device.model,
+                    Device.kind, Technician.name, Case.bench_minutes, Case.confirmed_fault,
+                    Case.confirmed_part, Case.confirmed_stage, Case.top_suspect_fault,
+                    cost, readings)
+             .join(Device, Device.id == Case.device_id)
+             .join(Technician, Technician.id == Case.technician_id)
+             .where(Case.opened_at >= since, Case.opened_at < until)
+             .order_by(Case.opened_at, Case.id))
+    writer = csv.writer(out)
+    writer.writerow(CSV_COLUMNS)
+    count = 0
+    with store.engine.connect() as connection:
+        for row in connection.execution_options(yield_per=1000).execute(query):
+            *head, cents, n_readings = row
+            writer.writerow([_cell(v) for v in head] + [f"{cents / 100:.2f}", n_readings])
+            count += 1
+    return count
+
+
+def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
+    """One case in the form ``fixbench diagnose`` reads, plus its record."""
+    with store.session() as session:
+        if isinstance(ticket_or_id, int):
+            case = session.get(Case, ticket_or_id)
+        else:
+            case = session.scalar(select(Case).where(Case.ticket_ref == ticket_or_id))
+        if case is None:
+            raise StoreInputError(f"there is no case {ticket_or_id}")
+        repairs = session.scalars(select(RepairAction).where(RepairAction.case_id == case.id)
+                                  .order_by(RepairAction.id))
+        checks = session.scalars(select(Verification).where(Verification.case_id == case.id)
+                                 .order_by(Verification.id))
+        return {
+            "format": CASE_JSON_FORMAT,
+            "version": CASE_JSON_VERSION,
+            "family": case.family_id,
+            "ratings": dict(case.ratings),
+            "readings": [{"check": r.check_id, "value": r.typed} for r in case.readings],
+            "record": {
+                "ticket": case.ticket_ref,
+                "device": {"make": case.device.make, "model": case.device.model,
+                           "kind": case.device.kind},
+                "technician": case.technician.name,
+                "status": case.status,
+                "outcome": case.outcome,
+                "opened_at": _iso(case.opened_at),
+                "closed_at": _iso(case.closed_at),
+                "bench_minutes": case.bench_minutes,
+                "confirmed": {"fault": case.confirmed_fault, "part": case.confirmed_part,
+                              "stage": case.confirmed_stage},
+                "suspects_after_each_reading": [
+                    [[s.fault_id, s.probability] for s in r.suspects] for r in case.readings],
+                "repairs": [{"part": a.part_id, "fault": a.fault_id, "action": a.action,
+                             "parts_cost_cents": a.parts_cost_cents} for a in repairs],
+                "verification": [{"check": v.check_id, "reading": v.typed, "passed": v.passed}
+                                 for v in checks],
+            },
+        }
+
+
+def _iso(moment: datetime | None) -> str | None:
+    return None if moment is None else moment.isoformat(timespec="seconds")
+
+
+def dump_case_json(store: Store, ticket_or_id: str | int) -> str:
+    return json.dumps(case_as_json(store, ticket_or_id), ensure_ascii=False, indent=2)

@@ -1,0 +1,207 @@
+"""The shop's records as SQLAlchemy 2 typed mappings (the schema at the newest migration).
+
+Times are naive UTC. Money is integer cents. Free text is ``Text`` so any length fits on both
+SQLite and PostgreSQL. Engine identifiers (families, checks, faults, parts, stages) are plain
+strings owned by the knowledge base; the store does not validate them against it.
+
+``cases.top_suspect_fault``, ``cases.came_back``, ``cases.failed_verification`` and the
+``confirmed_*`` columns are summaries kept by the store as cases are written (see
+:mod:`fixbench.store.case_flags`), so the owner's figures are single indexed SQL aggregates at
+100,000 cases; readings, suspects, verifications and the device's later cases stay the full record
+they are derived from. Changing anything here needs a new migration under ``migrations/``.
+"""
+
+from __future__ import annotations
+
+from datetime import datetime
+
+from sqlalchemy import (JSON, Boolean, DateTime, Float, ForeignKey, Index, Integer, LargeBinary,
+                        MetaData, String, Text, UniqueConstraint, false)
+from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, relationship
+
+STATUSES = ("intake", "diagnosing", "repairing", "verifying", "closed")
+OUTCOMES = ("repaired", "not_economical", "no_fault_found", "returned_unrepaired")
+ROLES = ("technician", "trainee")
+REPAIR_KINDS = ("replaced", "tested")
+
+
+# Named constraints, so SQLite batch migrations can find them again (alembic "batch" docs).
+NAMING_CONVENTION = {
+    "ix": "ix_%(column_0_label)s",
+    "uq": "uq_%(table_name)s_%(column_0_name)s",
+    "ck": "ck_%(table_name)s_%(constraint_name)s",
+    "fk": "fk_%(table_name)s_%(column_0_name)s_%(referred_table_name)s",
+    "pk": "pk_%(table_name)s",
+}
+
+
+class Base(DeclarativeBase):
+    metadata = MetaData(naming_convention=NAMING_CONVENTION)
+
+
+class Technician(Base):
+    __tablename__ = "technicians"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    name: Mapped[str] = mapped_column(Text)
+    role: Mapped[str] = mapped_column(String(16), default="technician")
+    active: Mapped[bool] = mapped_column(Boolean, default=True)
+
+
+class Device(Base):
+    __tablename__ = "devices"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    make: Mapped[str] = mapped_column(Text)
+    model: Mapped[str] = mapped_column(Text, index=True)
+    kind: Mapped[str] = mapped_column(Text)
+    label_ratings: Mapped[dict[str, str]] = mapped_column(JSON, default=dict)
+    serial: Mapped[str | None] = mapped_column(Text)
+
+
+class Case(Base):
+    __tablename__ = "cases"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    ticket_ref: Mapped[str] = mapped_column(Text, unique=True)
+    customer_ref: Mapped[str | None] = mapped_column(Text)
+    device_id: Mapped[int] = mapped_column(ForeignKey("devices.id"))
+    technician_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"))
+    family_id: Mapped[str] = mapped_column(Text)
+    ratings: Mapped[dict[str, str]] = mapped_column(JSON, default=dict)
+    status: Mapped[str] = mapped_column(String(16), default="intake")
+    outcome: Mapped[str | None] = mapped_column(String(32))
+    opened_at: Mapped[datetime] = mapped_column(DateTime)
+    closed_at: Mapped[datetime | None] = mapped_column(DateTime)
+    bench_minutes: Mapped[int | None] = mapped_column(Integer)
+    confirmed_fault: Mapped[str | None] = mapped_column(Text)
+    confirmed_part: Mapped[str | None] = mapped_column(Text)
+    confirmed_stage: Mapped[str | None] = mapped_column(Text)
+    notes: Mapped[str] = mapped_column(Text, default="")
+    top_suspect_fault: Mapped[str | None] = mapped_column(Text)
+    # Repaired, and the same unit was opened again as its next case within 90 days of closing.
+    came_back: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
+    failed_verification: Mapped[bool] = mapped_column(Boolean, default=False,
+                                                      server_default=false())
+
+    device: Mapped[Device] = relationship()
+    technician: Mapped[Technician] = relationship()
+    readings: Mapped[list[Reading]] = relationship(
+        back_populates="case", order_by="Reading.seq", cascade="all, delete-orphan",
+        passive_deletes=True)
+
+    __table_args__ = (
+        Index("ix_cases_opened_at", "opened_at"),
+        Index("ix_cases_closed_at", "closed_at"),
+        Index("ix_cases_status", "status"),
+        Index("ix_cases_outcome", "outcome"),
+        Index("ix_cases_family_fault", "family_id", "confirmed_fault"),
+        Index("ix_cases_technician", "technician_id", "bench_minutes"),
+        Index("ix_cases_device_opened", "device_id", "opened_at"),
+        Index("ix_cases_bench_minutes", "bench_minutes"),
+        Index("ix_cases_confirmed_fault", "confirmed_fault"),
+        Index("ix_cases_confirmed_part", "confirmed_part"),
+        Index("ix_cases_confirmed_stage", "confirmed_stage"),
+        Index("ix_cases_technician_flow", "technician_id", "status", "outcome", "came_back",
+              "failed_verification"),
+        Index("ix_cases_status_flow", "status", "outcome", "came_back", "failed_verification"),
+    )
+
+
+class Reading(Base):
+    """One check as the technician typed it and as it was parsed (value in SI units)."""
+
+    __tablename__ = "readings"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"))
+    seq: Mapped[int] = mapped_column(Integer)
+    check_id: Mapped[str] = mapped_column(Text)
+    typed: Mapped[str] = mapped_column(Text)
+    value: Mapped[float | None] = mapped_column(Float)
+    unit: Mapped[str | None] = mapped_column(Text)
+    outcome: Mapped[str | None] = mapped_column(Text)
+    entered_at: Mapped[datetime] = mapped_column(DateTime)
+
+    case: Mapped[Case] = relationship(back_populates="readings")
+    suspects: Mapped[list[Suspect]] = relationship(
+        order_by="Suspect.rank", cascade="all, delete-orphan", passive_deletes=True)
+
+    __table_args__ = (UniqueConstraint("case_id", "seq", name="uq_readings_case_seq"),)
+
+
+class Suspect(Base):
+    """The engine's ranked suspects right after a reading (rank 1 is its first suspect)."""
+
+    __tablename__ = "suspects"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    reading_id: Mapped[int] = mapped_column(ForeignKey("readings.id", ondelete="CASCADE"))
+    rank: Mapped[int] = mapped_column(Integer)
+    fault_id: Mapped[str] = mapped_column(Text)
+    part_id: Mapped[str | None] = mapped_column(Text)
+    stage_id: Mapped[str | None] = mapped_column(Text)
+    probability: Mapped[float] = mapped_column(Float)
+
+    __table_args__ = (UniqueConstraint("reading_id", "rank", name="uq_suspects_reading_rank"),)
+
+
+class RepairAction(Base):
+    __tablename__ = "repair_actions"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"), index=True)
+    part_id: Mapped[str] = mapped_column(Text)
+    fault_id: Mapped[str | None] = mapped_column(Text)
+    action: Mapped[str] = mapped_column(String(16))
+    parts_cost_cents: Mapped[int] = mapped_column(Integer, default=0)
+    done_at: Mapped[datetime] = mapped_column(DateTime)
+    note: Mapped[str] = mapped_column(Text, default="")
+
+
+class Verification(Base):
+    """A reading taken after the repair to show the supply works (passed or not)."""
+
+    __tablename__ = "verifications"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"), index=True)
+    check_id: Mapped[str] = mapped_column(Text)
+    typed: Mapped[str] = mapped_column(Text)
+    value: Mapped[float | None] = mapped_column(Float)
+    unit: Mapped[str | None] = mapped_column(Text)
+    outcome: Mapped[str | None] = mapped_column(Text)
+    passed: Mapped[bool] = mapped_column(Boolean)
+    entered_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class PracticeAttempt(Base):
+    __tablename__ = "practice_attempts"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    trainee_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"), index=True)
+    scenario: Mapped[str] = mapped_column(Text)
+    checks_used: Mapped[int] = mapped_column(Integer)
+    minutes: Mapped[float] = mapped_column(Float)
+    score: Mapped[float] = mapped_column(Float)
+    safety_slips: Mapped[int] = mapped_column(Integer, default=0)
+    attempted_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class Amendment(Base):
+    """A correction to a closed case: which field, its old and new value (JSON text), who, why."""
+
+    __tablename__ = "amendments"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"), index=True)
+    field: Mapped[str] = mapped_column(Text)
+    old_value: Mapped[str] = mapped_column(Text)
+    new_value: Mapped[str] = mapped_column(Text)
+    amended_by: Mapped[str] = mapped_column(Text)
+    amended_at: Mapped[datetime] = mapped_column(DateTime)
+    reason: Mapped[str] = mapped_column(Text)
+
+
+class OwnerSecret(Base):
+    """The owner's passphrase as a salted scrypt hash with its cost parameters (one row)."""
+
+    __tablename__ = "owner_secret"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    salt: Mapped[bytes] = mapped_column(LargeBinary)
+    n: Mapped[int] = mapped_column(Integer)
+    r: Mapped[int] = mapped_column(Integer)
+    p: Mapped[int] = mapped_column(Integer)
+    digest: Mapped[bytes] = mapped_column(LargeBinary)
+    set_at: Mapped[datetime] = mapped_column(DateTime)

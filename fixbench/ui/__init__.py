@@ -1,0 +1,1 @@
+"""The PySide6 front end: the only package that imports Qt."""

@@ -1,0 +1,5 @@
+"""Shared test set-up: Qt runs offscreen, so the suite needs no display."""
+
+import os
+
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")

@@ -1,0 +1,72 @@
+"""Export: owner-only CSV of a period, and one case as the JSON that diagnose re-runs."""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+from datetime import timedelta
+
+import pytest
+
+from fixbench.store.cases import add_repair_action
+from fixbench.store.errors import OwnerRequired
+from fixbench.store.export import CSV_COLUMNS, case_as_json, dump_case_json, export_cases_csv
+from fixbench.store.owner import set_owner_passphrase
+from tests.store.conftest import RATINGS, START, record_case
+
+PASS = "flux and braid"
+
+
+def test_csv_holds_cases_opened_in_the_period_only(bench):
+    store, tech, device = bench
+    set_owner_passphrase(store, PASS)
+    for day in range(5):
+        record_case(store, tech, device, ticket=f"E-{day}", opened=START + timedelta(days=day))
+    out = io.StringIO()
+    n = export_cases_csv(store, out, since=START + timedelta(days=1),
+                         until=START + timedelta(days=3), passphrase=PASS)
+    rows = list(csv.DictReader(io.StringIO(out.getvalue())))
+    assert n == 2 and [r["ticket"] for r in rows] == ["E-1", "E-2"]
+    assert tuple(rows[0]) == CSV_COLUMNS
+    assert rows[0]["technician"] == "Ada Tester" and rows[0]["readings"] == "1"
+
+
+def test_csv_cells_that_look_like_formulas_are_defused(bench):
+    store, tech, device = bench
+    set_owner_passphrase(store, PASS)
+    record_case(store, tech, device, ticket="=HYPERLINK(1)", opened=START)
+    out = io.StringIO()
+    export_cases_csv(store, out, since=START, until=START + timedelta(days=1), passphrase=PASS)
+    assert next(csv.DictReader(io.StringIO(out.getvalue())))["ticket"] == "'=HYPERLINK(1)"
+
+
+def test_csv_export_needs_the_owner(bench):
+    store, tech, device = bench
+    set_owner_passphrase(store, PASS)
+    with pytest.raises(OwnerRequired):
+        export_cases_csv(store, io.StringIO(), since=START, until=START + timedelta(days=1),
+                         passphrase="nope nope")
+
+
+def test_case_json_has_family_ratings_and_readings_in_order(bench):
+    store, tech, device = bench
+    case_id = record_case(store, tech, device, ticket="J-1", opened=START)
+    data = case_as_json(store, "J-1")
+    assert data["family"] == "pwm_flyback" and data["ratings"] == RATINGS
+    assert data["readings"] == [{"check": "bulk_voltage", "value": "325 V"}]
+    assert data["record"]["confirmed"]["fault"] == "Q1.short"
+    assert data["record"]["suspects_after_each_reading"][0][0] == ["Q1.short", 0.7]
+    assert case_as_json(store, case_id) == data
+    assert json.loads(dump_case_json(store, "J-1")) == data
+
+
+def test_case_json_lists_repairs(bench):
+    store, tech, device = bench
+    from fixbench.store.cases import open_case
+
+    case_id = open_case(store, ticket_ref="J-2", device_id=device, technician_id=tech,
+                        family_id="pwm_flyback", ratings=RATINGS)
+    add_repair_action(store, case_id, part_id="C5", action="replaced", parts_cost_cents=95)
+    assert case_as_json(store, "J-2")["record"]["repairs"] == [
+        {"part": "C5", "fault": None, "action": "replaced", "parts_cost_cents": 95}]

@@ -1,0 +1,121 @@
+"""Migrations: a database made by the first schema, full of rows, upgrades and keeps every row."""
+
+from __future__ import annotations
+
+import json
+from datetime import datetime
+
+import pytest
+from alembic.autogenerate import compare_metadata
+from alembic.runtime.migration import MigrationContext
+from sqlalchemy import DateTime, bindparam, text
+
+from fixbench.store import open_store
+from fixbench.store.migrate import MigrationBrokeForeignKeys, current_revision, head_revision, upgrade
+from fixbench.store.models import Base
+
+TABLES = ("technicians", "devices", "cases", "readings", "suspects", "repair_actions",
+          "verifications", "practice_attempts", "amendments")
+
+
+def _sql(statement: str):
+    """Plain SQL whose :at parameter is a timestamp (so each driver adapts it properly)."""
+    query = text(statement)
+    return query.bindparams(bindparam("at", type_=DateTime())) if ":at" in statement else query
+
+
+def _fill_v1(connection, cases: int) -> None:
+    """Rows written the way the first schema's code wrote them (plain SQL, no ORM)."""
+    now = datetime(2023, 5, 1, 10, 0)
+    connection.execute(_sql("INSERT INTO technicians (id, name, role, active) VALUES "
+                            "(1, 'Mara Okonkwo-Lind', 'technician', true), "
+                            "(2, 'Pip Trainee', 'trainee', true)"))
+    connection.execute(_sql("INSERT INTO devices (id, make, model, kind, label_ratings) "
+                            "VALUES (1, 'Quillon', 'QX-5', 'phone charger', :r)"),
+                       {"r": json.dumps({"output": "5 V"})})
+    for c in range(1, cases + 1):
+        connection.execute(_sql(
+            "INSERT INTO cases (id, ticket_ref, device_id, technician_id, family_id, ratings, "
+            "status, outcome, opened_at, closed_at, bench_minutes, confirmed_fault, notes) VALUES "
+            "(:id, :t, 1, 1, 'pwm_flyback', '{}', 'closed', 'repaired', :at, :at, 20, "
+            "'Q1.short', 'ok')"), {"id": c, "t": f"V1-{c}", "at": now})
+        for seq in (1, 2):
+            rid = c * 10 + seq
+            connection.execute(_sql(
+                "INSERT INTO readings (id, case_id, seq, check_id, typed, value, unit, entered_at) "
+                "VALUES (:id, :c, :s, 'bulk_voltage', '325 V', 325.0, 'V', :at)"),
+                {"id": rid, "c": c, "s": seq, "at": now})
+            top = "Q1.short" if seq == 2 else "F1.open"
+            connection.execute(_sql(
+                "INSERT INTO suspects (reading_id, rank, fault_id, probability) VALUES "
+                "(:r, 1, :f, 0.6), (:r, 2, 'R3.open', 0.3)"), {"r": rid, "f": top})
+        connection.execute(_sql(
+            "INSERT INTO repair_actions (case_id, part_id, action, parts_cost_cents, done_at, note)"
+            " VALUES (:c, 'Q1', 'replaced', 150, :at, '')"), {"c": c, "at": now})
+        connection.execute(_sql(
+            "INSERT INTO verifications (case_id, check_id, typed, passed, entered_at) "
+            "VALUES (:c, 'output_voltage', '5 V', true, :at)"), {"c": c, "at": now})
+        connection.execute(_sql(
+            "INSERT INTO amendments (case_id, field, old_value, new_value, amended_by, "
+            "amended_at, reason) VALUES (:c, 'notes', '\"\"', '\"ok\"', 'Owner', :at, 'typo')"),
+            {"c": c, "at": now})
+    connection.execute(_sql(
+        "INSERT INTO practice_attempts (trainee_id, scenario, checks_used, minutes, score, "
+        "safety_slips, attempted_at) VALUES (2, 'open_startup_resistor', 6, 12.5, 0.8, 1, :at)"),
+        {"at": now})
+
+
+def _counts(store) -> dict[str, int]:
+    with store.engine.connect() as connection:
+        return {t: connection.execute(text(f"SELECT count(*) FROM {t}")).scalar() for t in TABLES}
+
+
+def test_first_schema_database_with_rows_upgrades_keeping_every_row(store_url):
+    store = open_store(store_url, migrate=False)
+    upgrade(store, "0001")
+    with store.engine.begin() as connection:
+        _fill_v1(connection, cases=60)
+    before = _counts(store)
+    assert before["readings"] == 120 and before["suspects"] == 240
+
+    upgrade(store, "head")
+
+    assert _counts(store) == before
+    with store.engine.connect() as connection:
+        assert current_revision(connection) == head_revision()
+        tops = connection.execute(text("SELECT DISTINCT top_suspect_fault FROM cases")).all()
+    assert tops == [("Q1.short",)]  # filled from the rank-1 suspect of the last reading
+    store.close()
+
+
+def test_migrated_schema_matches_the_models(store_url):
+    store = open_store(store_url)
+    with store.engine.connect() as connection:
+        diff = compare_metadata(MigrationContext.configure(connection), Base.metadata)
+    assert diff == []
+    store.close()
+
+
+def test_migration_that_would_orphan_child_rows_is_rolled_back(tmp_path, monkeypatch):
+    path = tmp_path / "orphan.sqlite"
+    store = open_store(path, migrate=False)
+    upgrade(store, "0001")
+    with store.engine.begin() as connection:
+        _fill_v1(connection, cases=3)
+    before = _counts(store)
+    from fixbench.store import migrate
+
+    real = migrate._run_alembic
+
+    def upgrade_then_lose_a_parent(connection, revision):
+        real(connection, revision)
+        connection.exec_driver_sql("DELETE FROM cases WHERE id = 1")
+
+    monkeypatch.setattr(migrate, "_run_alembic", upgrade_then_lose_a_parent)
+    with pytest.raises(MigrationBrokeForeignKeys):
+        upgrade(store, "head")
+    assert _counts(store) == before
+    with store.engine.connect() as connection:
+        assert current_revision(connection) == "0001"
+        assert connection.exec_driver_sql("PRAGMA foreign_keys").scalar() == 1
+    store.close()
