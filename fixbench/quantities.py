@@ -146,15 +146,15 @@ def format_quantity(value: float | None, unit: str, digits: int = 3) -> str:
     return text
 
 
-def format_band(low: float | None, high: float | None, unit: str) -> str:
-    """Show a band as '300 V to 340 V', 'at least 2 V', 'at most 0.5 ohm'."""
+def format_band(low: float | None, high: float | None, unit: str, digits: int = 3) -> str:
+    """Show a band as '300 V to 340 V', 'at least 2 V', 'at most 0.5 ohm'; '' where there is none."""
     if low is not None and high is not None:
-        return f"{format_quantity(low, unit)} to {format_quantity(high, unit)}"
+        return f"{format_quantity(low, unit, digits)} to {format_quantity(high, unit, digits)}"
     if low is not None:
-        return f"at least {format_quantity(low, unit)}"
+        return f"at least {format_quantity(low, unit, digits)}"
     if high is not None:
-        return f"at most {format_quantity(high, unit)}"
-    return "any"
+        return f"at most {format_quantity(high, unit, digits)}"
+    return ""
 
 
 def quantiphy_value(text: str) -> float:

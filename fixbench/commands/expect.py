@@ -7,6 +7,13 @@ from fixbench.commands._unit import add_unit_arguments, family_and_ratings, rati
 from fixbench.engine.fault_model import cached_fault_model
 from fixbench.quantities import format_band, format_quantity
 
+FIGURE_TITLES = {
+    "vcc_start": ("vcc", "Controller start threshold (Vcc rising)"),
+    "vcc_stop": ("vcc", "Controller stop threshold (Vcc falling)"),
+    "bulk_minimum_at_load": ("bulk_plus/primary_ground", "Bulk valley at rated load"),
+    "bulk_capacitance": ("bulk_plus/primary_ground", "Bulk capacitance assumed"),
+}
+
 HELP = "print the readings a healthy unit of given ratings shows at each test point"
 
 
@@ -26,8 +33,8 @@ def healthy_rows(family, ratings) -> list[dict]:
                      "instrument": check.instrument, "power": check.power, "unit": check.unit,
                      "nominal": cm.healthy.nominal, "low": cm.healthy.low, "high": cm.healthy.high})
     for name, figure in model.healthy.figures.items():
-        rows.append({"point": "vcc" if name.startswith("vcc") else "bulk_plus/primary_ground",
-                     "check": None, "title": name.replace("_", " "), "instrument": None, "power": None,
+        point, title = FIGURE_TITLES[name]
+        rows.append({"point": point, "check": None, "title": title, "instrument": None, "power": None,
                      "unit": figure.unit, "nominal": figure.nominal, "low": figure.low, "high": figure.high})
     return rows
 
@@ -42,6 +49,6 @@ def run(args) -> int:
           f"mains on the bench {format_quantity(ratings.bench_mains, 'V')} {format_quantity(ratings.mains_hz, 'Hz')}")
     print_table(["check", "power", "points", "healthy", "band"],
                 [[r["title"], r["power"] or "", r["point"],
-                  format_quantity(r["nominal"], r["unit"]) if r["nominal"] is not None else "",
+                  format_quantity(r["nominal"], r["unit"], 4) if r["nominal"] is not None else "",
                   format_band(r["low"], r["high"], r["unit"])] for r in rows])
     return 0

@@ -28,8 +28,12 @@ class Expectation:
         return True
 
     def describe(self) -> str:
-        nominal = format_quantity(self.nominal, self.unit) if self.nominal is not None else None
-        band = format_band(self.low, self.high, self.unit)
+        # A narrow band (a reference voltage) needs a fourth digit to be read against.
+        narrow = (self.nominal and self.low is not None and self.high is not None
+                  and (self.high - self.low) < 0.05 * abs(self.nominal))
+        digits = 4 if narrow else 3
+        nominal = format_quantity(self.nominal, self.unit, digits) if self.nominal is not None else None
+        band = format_band(self.low, self.high, self.unit, digits)
         return f"{nominal} ({band})" if nominal else band
 
 
