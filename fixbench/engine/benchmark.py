@@ -60,7 +60,8 @@ def _unsafe(state: DiagnosisState, check_id: str) -> int:
     """Independent check of the safety rules on a proposal made in ``state``."""
     model, post = state.model, state.posterior
     check = state.family.check(check_id)
-    if check.power == "live" and planner.primary_short_chance(model, post) > planner.SHORT_THRESHOLD:
+    if check.power == "live" and (planner.primary_short_chance(model, post) > planner.SHORT_THRESHOLD
+                                  or not planner.lamp_cleared(model, state.evidence)):
         return 1
     if (check.power == "cold" and state.powered_since_discharge and state.family.touches_primary(check)
             and check.id != planner.DISCHARGE_CHECK):
@@ -116,7 +117,8 @@ def run_fixed(state: DiagnosisState, unit, root: str) -> RunResult:
     minutes, steps = 0.0, 0
     pending = fixed_order(state)
     while pending and not planner.finished(state.model, state.posterior):
-        allowed = [c for c in pending if planner.is_allowed(state.model, state.posterior, state.model.check_index(c))]
+        allowed = [c for c in pending
+                   if planner.is_allowed(state.model, state.posterior, state.model.check_index(c), state.evidence)]
         if not allowed:
             break
         check_id = allowed[0]

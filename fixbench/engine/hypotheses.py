@@ -22,8 +22,8 @@ NO_FAULT = "no_fault"
 # Share of bench units in which the supply itself is fine (device or its cable to blame) [practice].
 NO_FAULT_WEIGHT = 5.0
 PRIOR_STRENGTH = 30.0  # pseudo-counts behind the knowledge-base weights
-MIN_SET_SHARE = 0.02  # collateral sets rarer than this within their root are left out
-MAX_SETS_PER_ROOT = 8
+MIN_SET_SHARE = 0.005  # collateral sets rarer than this within their root are left out
+MAX_SETS_PER_ROOT = 10
 
 
 @dataclass(frozen=True)

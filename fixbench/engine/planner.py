@@ -3,7 +3,9 @@ among the checks that are safe now.
 
 Safety comes before information. While any hypothesis that shorts the primary (bridge, bulk
 capacitor or switch shorted) keeps more than SHORT_THRESHOLD of the posterior, plain mains is never
-proposed: only cold checks and the series-lamp power-up. After the unit has been powered (lamp or
+proposed: only cold checks and the series-lamp power-up. And plain mains always waits for a
+series-lamp power-up that did not glow bright: a unit whose short left the fuse intact can look
+healthy to every cold check the planner chose, and only the lamp shows it without blowing the fuse. After the unit has been powered (lamp or
 live), a cold check that touches the primary is preceded by confirming the bulk capacitor is
 discharged.
 
@@ -32,6 +34,7 @@ MIN_INFORMATION = 0.03  # bits: below this a check is not worth its minutes
 FRAGILE_BELOW = 0.5  # leading fault's share without one reading, under which the conclusion is fragile
 COST_FLOOR = 0.5  # minutes added to every check's cost: even a question takes a moment
 DISCHARGE_CHECK = "bulk_discharged"
+LAMP_CHECK = "series_lamp"
 
 
 @dataclass(frozen=True)
@@ -56,11 +59,23 @@ def group_chances(model: FaultModel, posterior: np.ndarray) -> list[tuple[tuple[
     return sorted(chances, key=lambda item: -item[1])
 
 
-def is_allowed(model: FaultModel, posterior: np.ndarray, check_index: int) -> bool:
-    """Whether proposing this check now is safe."""
+def lamp_cleared(model: FaultModel, evidence: tuple[tuple[int, int], ...]) -> bool:
+    """Whether a series-lamp power-up has read anything but bright (no short across the mains).
+    A family without the lamp check relies on the posterior alone."""
+    if not model.family.has_check(LAMP_CHECK):
+        return True
+    lamp = model.check_index(LAMP_CHECK)
+    names = model.checks[lamp].classes.names
+    return any(i == lamp and names[k] != "bright" for i, k in evidence)
+
+
+def is_allowed(model: FaultModel, posterior: np.ndarray, check_index: int,
+               evidence: tuple[tuple[int, int], ...] = ()) -> bool:
+    """Whether proposing this check now is safe: plain mains only once a short on the primary is
+    implausible and the series lamp has shown none."""
     check = model.checks[check_index].check
     if check.power == "live":
-        return primary_short_chance(model, posterior) <= SHORT_THRESHOLD
+        return primary_short_chance(model, posterior) <= SHORT_THRESHOLD and lamp_cleared(model, evidence)
     return True
 
 
@@ -89,7 +104,8 @@ def scored_candidates(model: FaultModel, posterior: np.ndarray, state: PlanState
     ``again``), best first."""
     scored = []
     for i, check_model in enumerate(model.checks):
-        if (i in state.done and i not in again) or not check_model.informative or not is_allowed(model, posterior, i):
+        if ((i in state.done and i not in again) or not check_model.informative
+                or not is_allowed(model, posterior, i, state.evidence)):
             continue
         bits = information_about_root(model, posterior, i)
         scored.append((bits / (check_model.check.minutes + COST_FLOOR), bits, i))
@@ -97,24 +113,28 @@ def scored_candidates(model: FaultModel, posterior: np.ndarray, state: PlanState
     return scored
 
 
+def _confirmations(model: FaultModel, posterior: np.ndarray, state: PlanState) -> list[tuple[float, float, int]]:
+    """Checks that would confirm a leader resting on one reading: one that separates it from the
+    rest, or the doubtful reading taken again."""
+    fragile = fragile_readings(model, posterior, state.evidence)
+    if not fragile:
+        return []
+    again = frozenset(fragile) - state.skipped
+    repeats = sum(1 for i, _ in state.evidence if i in again)
+    if repeats >= 2 * len(again):
+        again = frozenset()  # each doubtful check has been taken twice: do not loop on it
+    return [c for c in scored_candidates(model, posterior, state, again) if c[1] > 0.0]
+
+
 def choose(model: FaultModel, posterior: np.ndarray, state: PlanState) -> int | None:
     """Index of the next check, or None when the search should stop."""
     if finished(model, posterior):
-        fragile = fragile_readings(model, posterior, state.evidence)
-        if not fragile:
-            return None
-        # Confirm: a check that separates the leader from the rest, or the doubtful one again.
-        again = frozenset(fragile) - state.skipped
-        repeats = sum(1 for i, _ in state.evidence if i in again)
-        if repeats >= 2 * len(again):
-            again = frozenset()  # each doubtful check has been taken twice: do not loop on it
-        candidates = [c for c in scored_candidates(model, posterior, state, again) if c[1] > 0.0]
-        if not candidates:
-            return None
+        candidates = _confirmations(model, posterior, state)
     else:
-        candidates = [c for c in scored_candidates(model, posterior, state) if c[1] >= MIN_INFORMATION]
-        if not candidates:
-            return None
+        candidates = ([c for c in scored_candidates(model, posterior, state) if c[1] >= MIN_INFORMATION]
+                      or _confirmations(model, posterior, state))
+    if not candidates:
+        return None
     best = candidates[0][2]
     check = model.checks[best].check
     if (state.powered_since_discharge and check.power == "cold"

@@ -62,6 +62,11 @@ class DiagnosisState:
     def family(self) -> Family:
         return self.model.family
 
+    @property
+    def evidence(self) -> tuple[tuple[int, int], ...]:
+        """The readings as (check index, outcome class index) pairs, in order."""
+        return self._evidence
+
     def proposal_for(self, check_id: str) -> Proposal:
         """The step card for any check of the family (the technician may pick one off the list)."""
         i = self.model.check_index(check_id)
@@ -150,7 +155,9 @@ class DiagnosisState:
 
     @property
     def live_allowed(self) -> bool:
-        return planner.primary_short_chance(self.model, self.posterior) <= planner.SHORT_THRESHOLD
+        """Whether plain mains may be applied now (no plausible short, lamp test not bright)."""
+        return (planner.primary_short_chance(self.model, self.posterior) <= planner.SHORT_THRESHOLD
+                and planner.lamp_cleared(self.model, self._evidence))
 
     @cached_property
     def conclusion(self) -> Conclusion | None:

@@ -34,7 +34,9 @@ class Expectation:
         digits = 4 if narrow else 3
         nominal = format_quantity(self.nominal, self.unit, digits) if self.nominal is not None else None
         band = format_band(self.low, self.high, self.unit, digits)
-        return f"{nominal} ({band})" if nominal else band
+        if nominal and band:
+            return f"{nominal} ({band})"
+        return nominal or band or "any"
 
 
 def around(nominal: float, tolerance: float, unit: str) -> Expectation:

@@ -63,6 +63,7 @@ def cold_expectation(part: Part, instrument: str, ratings: Ratings, design: dict
             "fast_diode": semi.DIODE_TEST_FAST, "schottky": semi.DIODE_TEST_SCHOTTKY,
             "zener": semi.DIODE_TEST_SILICON, "optocoupler": OPTO_LED_DIODE_TEST,
             "tl431": TL431_DIODE_TEST, "bjt": semi.DIODE_TEST_SILICON,
+            "mosfet": semi.DIODE_TEST_SILICON,  # the body diode, source to drain [practice]
         }.get(kind)
         if band:
             return Expectation((band[0] + band[1]) / 2, band[0], band[1], "V")

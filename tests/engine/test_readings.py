@@ -1,0 +1,49 @@
+"""Readings as typed at the bench: meter words, lamp words and short answers."""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+
+from fixbench.engine.readings import read
+
+
+def _check(model, check_id):
+    return model.checks[model.check_index(check_id)]
+
+
+@pytest.mark.parametrize("check", ["fuse_resistance", "start_resistor", "lead_continuity", "gate_resistor"])
+def test_over_range_on_an_ohmmeter_reads_open(model, check):
+    reading = read(_check(model, check), "OL")
+    assert math.isinf(reading.value)
+    assert reading.outcome == "open"  # OL on the display is an open circuit [practice]
+    assert not reading.in_band
+
+
+@pytest.mark.parametrize("check", ["bridge_diode_test", "mosfet_drain_source", "output_diode_test"])
+def test_beep_on_diode_test_or_continuity_reads_short(model, check):
+    reading = read(_check(model, check), "beeps")
+    assert reading.outcome == "short"  # the continuity beeper sounds on a near-dead short [practice]
+
+
+def test_glows_bright_on_the_series_lamp_reads_bright(model):
+    assert read(_check(model, "series_lamp"), "glows bright").outcome == "bright"  # [practice]
+    assert read(_check(model, "series_lamp"), "flash then dark").outcome == "dim"  # [practice]
+
+
+@pytest.mark.parametrize("text, outcome", [("y", "yes"), ("Y", "yes"), ("n", "no"), ("yes", "yes")])
+def test_short_answers_to_a_question(model, text, outcome):
+    assert read(_check(model, "symptom_dead"), text).outcome == outcome
+
+
+def test_number_reading_lands_in_the_class_of_its_value(model):
+    vcc = _check(model, "vcc_voltage")
+    assert read(vcc, "13 V").outcome == "ok" and read(vcc, "13 V").in_band
+    assert read(vcc, "0 V").outcome == "zero"
+    assert read(vcc, "34").outcome == "high"  # a bare number takes the check's unit
+
+
+def test_healthy_fuse_reads_in_band(model):
+    reading = read(_check(model, "fuse_resistance"), "0.05 ohm")
+    assert reading.in_band and reading.outcome == "ok"
