@@ -1,0 +1,44 @@
+"""The store queries practice uses: replayable closed cases, a trainee's attempts, every trainee."""
+
+from __future__ import annotations
+
+from datetime import datetime
+
+from fixbench.store import open_store
+from fixbench.store.cases import close_case, open_case
+from fixbench.store.people import add_device, add_practice_attempt, add_technician
+from fixbench.store.practice_cases import attempts_of, replayable_cases, trainee_summaries
+
+
+def test_closed_cases_are_offered_without_who_or_whose(tmp_path):
+    store = open_store(tmp_path / "t.sqlite")
+    tech = add_technician(store, "Cy Bench")
+    device = add_device(store, make="Northwind", model="NW-12", kind="adapter",
+                        label_ratings={"output": "12 V"})
+    ratings = {"mains": "230 V", "output": "12 V", "current": "2 A"}
+    case_id = open_case(store, ticket_ref="T-1", device_id=device, technician_id=tech,
+                        family_id="pwm_flyback", ratings=ratings, customer_ref="Mrs Example")
+    close_case(store, case_id, outcome="repaired", bench_minutes=30, confirmed_fault="C3.dried",
+               closed_at=datetime(2024, 3, 5))
+    open_case(store, ticket_ref="T-2", device_id=device, technician_id=tech, family_id="pwm_flyback",
+              ratings=ratings)
+    cases = replayable_cases(store)
+    assert len(cases) == 1
+    assert cases[0].confirmed_fault == "C3.dried" and cases[0].closed == "2024-03"
+    assert "Mrs Example" not in repr(cases[0]) and "T-1" not in repr(cases[0])
+
+
+def test_attempts_come_oldest_first_and_every_trainee_is_summed(tmp_path):
+    store = open_store(tmp_path / "t.sqlite")
+    ada = add_technician(store, "Ada Test", role="trainee")
+    add_technician(store, "Bo Test", role="trainee")
+    add_technician(store, "Cy Bench")
+    add_practice_attempt(store, trainee_id=ada, scenario="drawn:easy:f:a:s1", checks_used=3, minutes=5,
+                         score=50, safety_slips=1, attempted_at=datetime(2024, 1, 1))
+    add_practice_attempt(store, trainee_id=ada, scenario="drawn:easy:f:a:s2", checks_used=4, minutes=6,
+                         score=90, safety_slips=0, attempted_at=datetime(2024, 1, 2))
+    assert [a.score for a in attempts_of(store, ada)] == [50, 90]
+    summaries = trainee_summaries(store)
+    assert [s.name for s in summaries] == ["Ada Test", "Bo Test"]
+    assert summaries[0].rounds == 2 and summaries[0].mean_score == 70 and summaries[0].rounds_with_slips == 1
+    assert summaries[1].rounds == 0
