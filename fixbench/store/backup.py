@@ -52,24 +52,36 @@ def backup_database(database: Path, keep: int = KEEP_BACKUPS) -> Path:
     folder.mkdir(parents=True, exist_ok=True)
     stamp = datetime.now(UTC).strftime("%Y%m%d-%H%M%S-%f")
     target = folder / f"{database.stem}-{stamp}{SUFFIX}"
-    _copy(database, target)
+    copy_database(database, target)
     for old in list_backups(database)[:-keep] if keep > 0 else []:
         old.unlink()
     return target
 
 
-def backup_if_due(database: Path, every: timedelta = timedelta(hours=24)) -> Path | None:
-    """Back up when the newest backup is older than ``every`` (call at start and close)."""
+def backup_if_due(database: Path | None, every: timedelta = timedelta(hours=24),
+                  keep: int = KEEP_BACKUPS) -> Path | None:
+    """The automatic rolling backup: the app calls this once at start, with ``store.path``.
+
+    Writes a backup (see :func:`backup_database`) when the newest backup of ``database`` is older
+    than ``every`` or there is none, keeping the newest ``keep``; returns the new backup's path, or
+    None when none was due. ``database`` None (a PostgreSQL shop: back it up on the server) or a
+    file that does not exist yet does nothing. Safe while benches are writing, since the copy is
+    SQLite's online backup; it reads the whole file (about 3 kB per case), so call it off the GUI
+    thread. Raises :class:`StoreFileError` for a damaged database rather than backing it up.
+    """
+    if database is None or not database.exists():
+        return None
     newest = newest_backup(database)
     if newest is not None:
         age = datetime.now(UTC).timestamp() - newest.stat().st_mtime
         if age < every.total_seconds():
             return None
-    return backup_database(database) if database.exists() else None
+    return backup_database(database, keep=keep)
 
 
-def _copy(source: Path, target: Path) -> None:
-    """Online-backup ``source`` into a new file ``target``, which appears only when complete."""
+def copy_database(source: Path, target: Path) -> None:
+    """Online-backup ``source`` into a new single file ``target`` (journal mode DELETE, no WAL
+    beside it), which appears only when complete."""
     partial = target.with_name(target.name + ".partial")
     partial.unlink(missing_ok=True)
     src = sqlite3.connect(source, timeout=BUSY_TIMEOUT_S)

@@ -19,11 +19,13 @@ from pathlib import Path
 
 from sqlalchemy import insert
 
+from fixbench.store.case_flags import recompute_all_flags
 from fixbench.store.case_list import SORTABLE, case_page
-from fixbench.store.cases import RankedSuspect, add_reading, close_case, open_case
+from fixbench.store.cases import (RankedSuspect, add_reading, add_verification, close_case,
+                                  open_case)
 from fixbench.store.database import open_store
 from fixbench.store.figures import OWNER_FIGURES
-from fixbench.store.models import Case, Device, Reading, Suspect, Technician
+from fixbench.store.models import Case, Device, Reading, Suspect, Technician, Verification
 
 API_SAMPLE_CASES = 100
 READINGS_PER_CASE = 6
@@ -34,6 +36,7 @@ FAULTS = [f"{part}.{mode}" for part in ("Q1", "U1", "R3", "D5", "C1", "C5", "F1"
 OUTCOMES = ["repaired"] * 8 + ["not_economical", "no_fault_found", "returned_unrepaired"]
 FAMILIES = ["pwm_flyback", "self_oscillating", "primary_side"]
 STATUSES_OPEN = ["diagnosing", "repairing", "verifying"]
+FAILED_VERIFICATION_CHANCE = 0.05  # a repaired case whose first verification failed
 START = datetime(2020, 1, 1)
 
 
@@ -64,7 +67,15 @@ def _fake_case(rng: random.Random, number: int, n_devices: int) -> tuple[dict, l
                 top_suspect_fault=fault if rng.random() < 0.7 else rng.choice(FAULTS))
     readings = [(seq, opened + timedelta(minutes=3 * seq),
                  rng.sample(FAULTS, SUSPECTS_PER_READING)) for seq in range(1, READINGS_PER_CASE + 1)]
+    # Verification results in order: repaired cases end on a pass, some after a failed first try.
+    case["verified"] = (([False] if rng.random() < FAILED_VERIFICATION_CHANCE else []) + [True]
+                        if repaired else [])
     return case, readings
+
+
+def _verification(passed: bool, at: datetime) -> dict:
+    return dict(check_id="output_voltage", typed="12.1 V" if passed else "0 V",
+                value=12.1 if passed else 0.0, unit="V", outcome=None, passed=passed, entered_at=at)
 
 
 def _api_sample(store, rng: random.Random, first: int, count: int, n_devices: int) -> int:
@@ -79,6 +90,8 @@ def _api_sample(store, rng: random.Random, first: int, count: int, n_devices: in
                         unit="V", outcome=None, entered_at=at,
                         suspects=[RankedSuspect(f, 0.5 / rank) for rank, f in enumerate(faults, 1)])
             readings += 1
+        for passed in case.pop("verified") or [True]:
+            add_verification(store, case_id, **_verification(passed, steps[-1][1]))
         close_case(store, case_id, outcome="repaired", bench_minutes=case["bench_minutes"] or 30,
                    confirmed_fault=case["confirmed_fault"] or "Q1.short", closed_at=case["closed_at"])
     return readings
@@ -87,9 +100,11 @@ def _api_sample(store, rng: random.Random, first: int, count: int, n_devices: in
 def _bulk_fill(store, rng: random.Random, first: int, last: int, n_devices: int) -> None:
     reading_id = (first - 1) * READINGS_PER_CASE + 1_000_000
     for chunk_start in range(first, last + 1, CHUNK):
-        cases, readings, suspects = [], [], []
+        cases, readings, suspects, verifications = [], [], [], []
         for number in range(chunk_start, min(chunk_start + CHUNK, last + 1)):
             case, steps = _fake_case(rng, number, n_devices)
+            verifications.extend(dict(case_id=number, **_verification(passed, steps[-1][1]))
+                                 for passed in case.pop("verified"))
             cases.append(case)
             for seq, at, faults in steps:
                 reading_id += 1
@@ -103,6 +118,11 @@ def _bulk_fill(store, rng: random.Random, first: int, last: int, n_devices: int)
             connection.execute(insert(Case), cases)
             connection.execute(insert(Reading), readings)
             connection.execute(insert(Suspect), suspects)
+            if verifications:
+                connection.execute(insert(Verification), verifications)
+    # Rows inserted in bulk skip the bench functions that keep the flags; set them as they would.
+    with store.engine.begin() as connection:
+        recompute_all_flags(connection)
 
 
 def run_store_benchmark(cases: int = 100_000, seed: int = 1) -> dict:

@@ -1,12 +1,14 @@
 """The demo shop's history without its readings: people, devices, dates, outcomes, comebacks.
 
-Everything here is fictional and deterministic for a seed: a made-up shop with four technicians
-and two trainees, invented device makes and models, about two years of cases arriving on working
-days, faults drawn in proportion to the knowledge base's prior weights, bench minutes from a
-log-normal spread per technician (repair times are commonly modelled as log-normal; Kline,
-"The Lognormal Distribution as a Repair-Time Model", 1984), some units that come back within 90
-days and some that are not worth repairing. The readings of each case come from the engine, in
-:mod:`fixbench.store.demo_shop`.
+Everything here is fictional and deterministic for a seed: a made-up shop on 230 V 50 Hz mains
+with four technicians and two trainees, invented device makes and models (each model built on one
+supply family, with the ratings on its label), about two years of cases arriving on working days,
+faults drawn within the unit's family in proportion to the knowledge base's prior weights, each
+technician's pace as a log-normal spread around their own speed (repair times are commonly
+modelled as log-normal; Kline, "The Lognormal Distribution as a Repair-Time Model", 1984), some
+units that come back within 90 days and some that are not worth repairing. The readings, repairs,
+verifications and bench minutes of each case come from the engine, in
+:mod:`fixbench.store.demo_bench`.
 """
 
 from __future__ import annotations
@@ -17,21 +19,43 @@ from datetime import datetime, timedelta
 
 SHOP_END = datetime(2025, 6, 30, 18, 0)
 SHOP_DAYS = 730
-TECHNICIANS = (("Mara Quellby", 26.0), ("Oskar Venn", 34.0), ("Ilse Farrow", 30.0),
-               ("Teodor Malk", 40.0))  # name, median bench minutes for an ordinary repair
+SHOP_MAINS = "230 V"  # the bench supply of the fictional shop, 50 Hz
+# name, pace: the technician's bench time as a multiple of the checks' and repairs' book minutes
+TECHNICIANS = (("Mara Quellby", 0.85), ("Oskar Venn", 1.15), ("Ilse Farrow", 1.0),
+               ("Teodor Malk", 1.35))
 TRAINEES = ("Juno Pellory", "Ravi Ashcombe")
-# make -> (model, kind, ratings printed on its label)
-MODELS = {
-    "Quillon": (("QX-5", "phone charger", {"output": "5 V", "current": "1 A"}),
-                ("QX-10", "phone charger", {"output": "5 V", "current": "2 A"})),
-    "Tarnwick": (("TW-24", "usb adapter", {"output": "5 V", "current": "2.4 A"}),
-                 ("TW-Duo", "usb adapter", {"output": "9 V", "current": "2 A"})),
-    "Pellamor": (("PM-65", "laptop adapter", {"output": "19 V", "current": "3.42 A"}),
-                 ("PM-45", "laptop adapter", {"output": "20 V", "current": "2.25 A"})),
-    "Zintrek": (("Z-Mini", "phone charger", {"output": "5 V", "current": "1 A"}),),
-    "Halvenor": (("HV-90", "laptop adapter", {"output": "19.5 V", "current": "4.62 A"}),),
-}
-MAINS = {"mains": "230 V", "frequency": "50 Hz"}
+UNIVERSAL = {"mains": "100-240 V", "frequency": "50 Hz"}
+FIXED_230 = {"mains": "230 V", "frequency": "50 Hz"}
+
+
+@dataclass(frozen=True)
+class DemoModel:
+    make: str
+    model: str
+    kind: str
+    family_id: str
+    label: dict  # the ratings printed on the unit's label
+    share: float  # how often this model comes in, relative to the others
+
+
+MODELS = (
+    DemoModel("Zintrek", "Z-Mini", "phone charger", "self_oscillating",
+              {**FIXED_230, "output": "5 V", "current": "1 A"}, 3.0),
+    DemoModel("Quillon", "QX-5", "phone charger", "self_oscillating",
+              {**FIXED_230, "output": "5 V", "current": "1 A"}, 2.0),
+    DemoModel("Quillon", "QX-10", "phone charger", "primary_side",
+              {**UNIVERSAL, "output": "5 V", "current": "2 A"}, 2.5),
+    DemoModel("Tarnwick", "TW-20", "usb adapter", "primary_side",
+              {**UNIVERSAL, "output": "5 V", "current": "2 A"}, 2.0),
+    DemoModel("Tarnwick", "TW-5P", "usb adapter", "pwm_flyback",
+              {**UNIVERSAL, "output": "5 V", "current": "2 A"}, 1.5),
+    DemoModel("Halvenor", "HV-12", "router adapter", "pwm_flyback",
+              {**UNIVERSAL, "output": "12 V", "current": "2 A"}, 1.5),
+    DemoModel("Halvenor", "HV-12S", "monitor adapter", "pwm_flyback",
+              {**UNIVERSAL, "output": "12 V", "current": "3 A"}, 1.0),
+    DemoModel("Pellamor", "PM-65", "laptop adapter", "pwm_flyback",
+              {**UNIVERSAL, "output": "19 V", "current": "3.4 A"}, 2.0),
+)
 OUTCOME_WEIGHTS = {"repaired": 80, "not_economical": 8, "no_fault_found": 6,
                    "returned_unrepaired": 6}
 COMEBACK_CHANCE = 0.06
@@ -54,7 +78,13 @@ class DemoDevice:
     make: str
     model: str
     kind: str
+    family_id: str
     label_ratings: dict
+
+    @property
+    def bench_ratings(self) -> dict:
+        """The ratings a case of this unit is diagnosed with: the label plus the shop's mains."""
+        return {**self.label_ratings, "bench_mains": SHOP_MAINS}
 
 
 @dataclass(frozen=True)
@@ -65,7 +95,8 @@ class DemoCase:
     device: DemoDevice
     fault: FaultChoice
     outcome: str
-    bench_minutes: int
+    pace: float  # bench minutes per book minute for this case
+    wait_minutes: int  # from intake to the first reading
     comeback_of: str | None
 
 
@@ -92,14 +123,13 @@ def catalogue_from_knowledge(kb) -> list[FaultChoice]:
     return choices
 
 
-def plan_shop(seed: int, catalogue: list[FaultChoice]) -> list[DemoCase]:
-    """About two years of cases, oldest first, for ``seed``."""
+def plan_shop(seed: int, catalogue: list[FaultChoice], days: int = SHOP_DAYS) -> list[DemoCase]:
+    """The last ``days`` days of cases up to ``SHOP_END`` (about two years), oldest first."""
     rng = random.Random(seed)
-    weights = [choice.weight for choice in catalogue]
     devices: list[DemoDevice] = []
     cases: list[DemoCase] = []
     comebacks: dict[datetime, list[DemoCase]] = {}
-    day = (SHOP_END - timedelta(days=SHOP_DAYS)).replace(hour=9, minute=0)
+    day = (SHOP_END - timedelta(days=days)).replace(hour=9, minute=0)
     while day < SHOP_END:
         if day.weekday() < 5:
             arrivals = [None] * _poisson(rng, CASES_PER_WORKING_DAY)
@@ -109,7 +139,7 @@ def plan_shop(seed: int, catalogue: list[FaultChoice]) -> list[DemoCase]:
                 if earlier is None:
                     device = _new_device(rng, len(devices) + 1)
                     devices.append(device)
-                    fault = rng.choices(catalogue, weights)[0]
+                    fault = _family_fault(rng, device.family_id, catalogue)
                 else:
                     device, fault = earlier.device, _comeback_fault(rng, earlier, catalogue)
                 case = _plan_case(rng, len(cases) + 1, opened, device, fault, earlier)
@@ -131,27 +161,30 @@ def _poisson(rng: random.Random, mean: float) -> int:
 
 
 def _new_device(rng: random.Random, number: int) -> DemoDevice:
-    make = rng.choice(sorted(MODELS))
-    model, kind, label = rng.choice(MODELS[make])
-    return DemoDevice(number, make, model, kind, {**MAINS, **label})
+    model = rng.choices(MODELS, [m.share for m in MODELS])[0]
+    return DemoDevice(number, model.make, model.model, model.kind, model.family_id,
+                      dict(model.label))
+
+
+def _family_fault(rng: random.Random, family_id: str, catalogue: list[FaultChoice]) -> FaultChoice:
+    same_family = [c for c in catalogue if c.family_id == family_id]
+    return rng.choices(same_family, [c.weight for c in same_family])[0]
 
 
 def _comeback_fault(rng: random.Random, earlier: DemoCase, catalogue: list[FaultChoice]):
     # A comeback is often the same weak spot failing again, else any fault of the same family.
     if rng.random() < 0.5:
         return earlier.fault
-    same_family = [c for c in catalogue if c.family_id == earlier.fault.family_id]
-    return rng.choices(same_family, [c.weight for c in same_family])[0]
+    return _family_fault(rng, earlier.device.family_id, catalogue)
 
 
 def _plan_case(rng, number, opened, device, fault, earlier) -> DemoCase:
-    name, median = rng.choice(TECHNICIANS)
+    name, pace = rng.choice(TECHNICIANS)
     outcome = rng.choices(list(OUTCOME_WEIGHTS), list(OUTCOME_WEIGHTS.values()))[0]
-    factor = {"repaired": 1.0, "not_economical": 0.6, "no_fault_found": 0.8,
-              "returned_unrepaired": 0.4}[outcome]
-    minutes = max(5, round(rng.lognormvariate(0, 0.45) * median * factor))
     return DemoCase(ticket=f"W{opened:%y%m}-{number:04d}", opened_at=opened, technician=name,
-                    device=device, fault=fault, outcome=outcome, bench_minutes=minutes,
+                    device=device, fault=fault, outcome=outcome,
+                    pace=round(pace * rng.lognormvariate(0, 0.25), 3),
+                    wait_minutes=rng.randrange(10, 240),
                     comeback_of=None if earlier is None else earlier.ticket)
 
 

@@ -20,7 +20,8 @@ from sqlalchemy import func, select
 
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import Case, Device, Reading, RepairAction, Technician, Verification
+from fixbench.store.models import (Case, Device, Reading, RepairAction, Technician, Verification,
+                                   WithdrawnReading)
 from fixbench.store.owner import require_owner
 
 CASE_JSON_FORMAT = "fixbench-case"
@@ -48,7 +49,10 @@ def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datet
         raise StoreInputError("the end of the period must come after its start")
     cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
             .where(RepairAction.case_id == Case.id).scalar_subquery())
-    readings = (select(func.count()).where(Reading.case_id == Case.id).scalar_subquery())
+    # Readings taken back with undo are kept in the record but do not count as readings.
+    readings = (select(func.count()).where(Reading.case_id == Case.id,
+                                           Reading.id.not_in(select(WithdrawnReading.reading_id)))
+                .scalar_subquery())
     query = (select(Case.ticket_ref, Case.customer_ref, Case.opened_at, Case.closed_at,
                     Case.status, Case.outcome, Case.family_id, Device.make, Device.model,
                     Device.kind, Technician.name, Case.bench_minutes, Case.confirmed_fault,
@@ -82,12 +86,16 @@ def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
                                   .order_by(RepairAction.id))
         checks = session.scalars(select(Verification).where(Verification.case_id == case.id)
                                  .order_by(Verification.id))
+        withdrawn = set(session.scalars(select(WithdrawnReading.reading_id)
+                                        .join(Reading, Reading.id == WithdrawnReading.reading_id)
+                                        .where(Reading.case_id == case.id)))
+        standing = [r for r in case.readings if r.id not in withdrawn]
         return {
             "format": CASE_JSON_FORMAT,
             "version": CASE_JSON_VERSION,
             "family": case.family_id,
             "ratings": dict(case.ratings),
-            "readings": [{"check": r.check_id, "value": r.typed} for r in case.readings],
+            "readings": [{"check": r.check_id, "value": r.typed} for r in standing],
             "record": {
                 "ticket": case.ticket_ref,
                 "device": {"make": case.device.make, "model": case.device.model,
@@ -101,7 +109,9 @@ def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
                 "confirmed": {"fault": case.confirmed_fault, "part": case.confirmed_part,
                               "stage": case.confirmed_stage},
                 "suspects_after_each_reading": [
-                    [[s.fault_id, s.probability] for s in r.suspects] for r in case.readings],
+                    [[s.fault_id, s.probability] for s in r.suspects] for r in standing],
+                "withdrawn_readings": [{"check": r.check_id, "value": r.typed}
+                                       for r in case.readings if r.id in withdrawn],
                 "repairs": [{"part": a.part_id, "fault": a.fault_id, "action": a.action,
                              "parts_cost_cents": a.parts_cost_cents} for a in repairs],
                 "verification": [{"check": v.check_id, "reading": v.typed, "passed": v.passed}

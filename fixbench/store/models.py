@@ -99,9 +99,16 @@ class Case(Base):
         Index("ix_cases_confirmed_fault", "confirmed_fault"),
         Index("ix_cases_confirmed_part", "confirmed_part"),
         Index("ix_cases_confirmed_stage", "confirmed_stage"),
-        Index("ix_cases_technician_flow", "technician_id", "status", "outcome", "came_back",
-              "failed_verification"),
-        Index("ix_cases_status_flow", "status", "outcome", "came_back", "failed_verification"),
+        # Covering indexes for the owner's figures (migration 0003 says why).
+        Index("ix_cases_fig_technician", "status", "technician_id", "bench_minutes", "outcome",
+              "came_back", "failed_verification", "opened_at"),
+        Index("ix_cases_fig_minutes", "status", "bench_minutes", "opened_at"),
+        Index("ix_cases_fig_family", "status", "family_id", "outcome", "opened_at"),
+        Index("ix_cases_fig_fault", "status", "confirmed_fault", "outcome", "opened_at",
+              "top_suspect_fault"),
+        Index("ix_cases_fig_part", "status", "confirmed_part", "outcome", "opened_at"),
+        Index("ix_cases_fig_stage", "status", "confirmed_stage", "outcome", "opened_at"),
+        Index("ix_cases_fig_device", "status", "device_id", "outcome", "opened_at"),
     )
 
 
@@ -205,3 +212,43 @@ class OwnerSecret(Base):
     p: Mapped[int] = mapped_column(Integer)
     digest: Mapped[bytes] = mapped_column(LargeBinary)
     set_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+# --- The bench's own record (migration 0004): undo, skips, caution acknowledgement, shop settings.
+
+
+class ShopSetting(Base):
+    """A shop-wide setting kept as text (the footer of the owner's reports, ...)."""
+
+    __tablename__ = "shop_settings"
+    key: Mapped[str] = mapped_column(String(64), primary_key=True)
+    value: Mapped[str] = mapped_column(Text)
+
+
+class WithdrawnReading(Base):
+    """A reading the technician took back (undo): kept in the record, left out of the diagnosis."""
+
+    __tablename__ = "withdrawn_readings"
+    reading_id: Mapped[int] = mapped_column(ForeignKey("readings.id", ondelete="CASCADE"),
+                                            primary_key=True)
+    withdrawn_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class SkippedCheck(Base):
+    """A check the technician could not make on this unit ("cannot measure")."""
+
+    __tablename__ = "skipped_checks"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"), index=True)
+    check_id: Mapped[str] = mapped_column(Text)
+    skipped_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class CautionAcknowledgement(Base):
+    """Who read and accepted the safety cautions of a case before it was powered, and when."""
+
+    __tablename__ = "caution_acknowledgements"
+    case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"),
+                                         primary_key=True)
+    technician_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"))
+    acknowledged_at: Mapped[datetime] = mapped_column(DateTime)

@@ -1,52 +1,148 @@
-"""The main window: one tab per screen, and the start-up that opens the shop's database."""
+"""The main window: one tab per screen, and the start-up that opens the shop's database.
+
+The window shows first, with one line saying the shop is being opened; the store (migrations,
+backups) and the knowledge base are opened off the GUI thread, then the screens are built. So the
+window appears about as fast as a bare Qt window, whatever the size of the shop's records.
+"""
 
 from __future__ import annotations
 
 import importlib
 import sys
+from collections.abc import Callable
 
+from PySide6.QtCore import Qt, QTimer
 from PySide6.QtGui import QKeySequence, QShortcut
-from PySide6.QtWidgets import QApplication, QLabel, QMainWindow, QMessageBox, QTabWidget, QWidget
+from PySide6.QtWidgets import QApplication, QLabel, QMainWindow, QTabWidget, QWidget
 
 from fixbench.ui.context import AppContext
 from fixbench.ui.screens import SCREENS
 
 WINDOW_TITLE = "fixbench"
+START_SIZE = (1366, 768)
 
 
 def _load_screen(path: str, context: AppContext) -> QWidget:
+    """Build one screen; a screen whose module is not there yet shows a plain placeholder."""
     module_name, class_name = path.split(":")
-    return getattr(importlib.import_module(module_name), class_name)(context)
+    try:
+        module = importlib.import_module(module_name)
+    except ModuleNotFoundError as err:
+        if err.name is None or not module_name.startswith(err.name):
+            raise  # a module the screen itself needs is missing: that is a real fault
+        label = QLabel(f"This screen is not available in this version of fixbench ({module_name}).")
+        label.setAlignment(Qt.AlignmentFlag.AlignCenter)
+        label.setObjectName("placeholder")
+        return label
+    return getattr(module, class_name)(context)
 
 
 class MainWindow(QMainWindow):
-    def __init__(self, context: AppContext) -> None:
+    def __init__(self, context: AppContext | None = None) -> None:
         super().__init__()
-        self.context = context
+        self.context: AppContext | None = None
         self.setWindowTitle(WINDOW_TITLE)
         self.tabs = QTabWidget()
         self.tabs.setDocumentMode(True)
         self.screens: dict[str, QWidget] = {}
+        self.opening = QLabel("Opening the shop's records\u2026")
+        self.opening.setAlignment(Qt.AlignmentFlag.AlignCenter)
+        self.setCentralWidget(self.opening)
+        for i in range(len(SCREENS)):
+            QShortcut(QKeySequence(f"Ctrl+{i + 1}"), self, activated=lambda i=i: self.tabs.setCurrentIndex(i))
+        self.resize(*START_SIZE)
+        if context is not None:
+            self.attach(context)
+
+    def attach(self, context: AppContext) -> None:
+        """Build the screens over an open store (again, when the store is switched)."""
+        self.context = context
+        self.tabs = QTabWidget()
+        self.tabs.setDocumentMode(True)
+        self.screens = {}
         for i, (title, path, tip) in enumerate(SCREENS):
             screen = _load_screen(path, context)
             self.screens[title] = screen
             self.tabs.addTab(screen, title)
             self.tabs.setTabToolTip(i, tip)
-            QShortcut(QKeySequence(f"Ctrl+{i + 1}"), self, activated=lambda i=i: self.tabs.setCurrentIndex(i))
+        bench = self.screens.get("Bench")
+        if bench is not None and hasattr(bench, "demo_wanted"):
+            bench.demo_wanted.connect(self.open_demo_shop)
         self.setCentralWidget(self.tabs)
-        self.resize(1280, 760)
+        self.setWindowTitle(_title(context))
+        if bench is not None:
+            bench.setFocus()
+
+    def show_problem(self, text: str) -> None:
+        self.opening.setText(text)
+        self.opening.setWordWrap(True)
+        self.opening.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+
+    def open_demo_shop(self) -> None:
+        from fixbench.store import StoreError, open_store
+        from fixbench.store import location
+
+        # A fresh copy in the user data folder: the shipped file stays as built, and every visit to
+        # the demo starts from the same history.
+        path = location.demo_working_copy()
+        bench = self.screens.get("Bench")
+        if path is None or not path.exists():
+            if bench is not None:
+                bench.status.setText("\u26a0 The demo shop is not installed with this copy of fixbench.")
+            return
+        try:
+            store = open_store(path)
+        except StoreError as err:
+            if bench is not None:
+                bench.status.setText(f"\u26a0 {err}")
+            return
+        old = self.context
+        self.attach(AppContext(store, old.knowledge))
+        old.store.close()
 
 
-def run_app(db: str | None) -> int:
+def _title(context: AppContext) -> str:
+    path = getattr(context.store, "path", None)
+    return f"{WINDOW_TITLE} \u2014 {path.name}" if path is not None else WINDOW_TITLE
+
+
+def open_context(db: str | None) -> AppContext:
+    """Back up the file if due, open and migrate the store, load the knowledge (off the GUI thread)."""
+    from fixbench.store import open_store
+    from fixbench.store.backup import backup_if_due
+    from fixbench.store.location import resolve_url, sqlite_path
+
+    path = sqlite_path(resolve_url(db))
+    if path is not None and path.exists() and path.stat().st_size > 0:
+        backup_if_due(path)
+    store = open_store(db)
+    context = AppContext(store)
+    importlib.import_module("fixbench.ui.bench.screen")  # the import work, not the widgets
+    return context
+
+
+def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None) -> int:
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("fixbench")
-    from fixbench.store import StoreFileError, open_store
-
-    try:
-        store = open_store(db)
-    except StoreFileError as err:
-        QMessageBox.critical(None, "fixbench: database not opened", str(err))
-        return 2
-    window = MainWindow(AppContext(store))
+    window = MainWindow()
     window.show()
+    if on_shown is not None:
+        QTimer.singleShot(0, lambda: on_shown(window))
+
+    def opened(context: AppContext) -> None:
+        window.attach(context)
+
+    def failed(err: Exception) -> None:
+        from fixbench.store import StoreError
+
+        if isinstance(err, StoreError):
+            window.show_problem(f"The shop's database was not opened.\n\n{err}")
+        else:
+            window.show_problem(f"fixbench could not start: {type(err).__name__}: {err}")
+            raise err
+
+    from fixbench.ui.workers import run_in_background
+
+    # Queued after the first paint, so the heavy imports do not compete with showing the window.
+    QTimer.singleShot(0, lambda: run_in_background(lambda: open_context(db), opened, failed))
     return app.exec()

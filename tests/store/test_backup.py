@@ -9,7 +9,8 @@ import pytest
 from sqlalchemy import func, select
 
 from fixbench.store import StoreFileError, open_store
-from fixbench.store.backup import backup_database, list_backups, newest_backup, restore_backup
+from fixbench.store.backup import (backup_database, backup_if_due, list_backups, newest_backup,
+                                   restore_backup)
 from fixbench.store.models import Case
 from fixbench.store.people import add_device, add_technician
 from tests.store.conftest import RATINGS, START, record_case
@@ -107,3 +108,22 @@ def test_restoring_from_a_damaged_backup_is_refused(tmp_path):
     with pytest.raises(StoreFileError):
         restore_backup(bad, path)
     assert _count(path) == 1
+
+
+def test_backup_at_start_is_made_when_due_and_skipped_when_recent(tmp_path):
+    path = tmp_path / "shop.sqlite"
+    _shop(path, cases=1).close()
+    first = backup_if_due(path)
+    assert first is not None and list_backups(path) == [first]
+    assert backup_if_due(path) is None  # one a day is enough
+    day_old = first.stat().st_mtime - 25 * 3600
+    os.utime(first, (day_old, day_old))
+    second = backup_if_due(path)
+    assert second is not None and list_backups(path) == [first, second]
+    assert _count(second) == 1
+
+
+def test_backup_at_start_does_nothing_for_a_server_or_a_new_shop(tmp_path):
+    assert backup_if_due(None) is None
+    assert backup_if_due(tmp_path / "not-yet.sqlite") is None
+    assert not (tmp_path / "not-yet-backups").exists()

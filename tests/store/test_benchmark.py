@@ -17,3 +17,13 @@ def test_small_benchmark_reports_rates_query_times_and_size(capsys):
     assert 500 < result["bytes_per_case"] < 50_000
     print_store_benchmark(result, as_json=True)
     assert json.loads(capsys.readouterr().out)["cases"] == 300
+
+
+def test_store_benchmark_command_prints_the_table_with_targets(capsys):
+    from fixbench.cli import main
+
+    assert main(["benchmark", "store", "--cases", "300", "--seed", "1"]) == 0
+    out = capsys.readouterr().out
+    assert "cases: 300" in out
+    assert all(name in out for name in OWNER_FIGURES)
+    assert "(target 200)" in out and "(target 50)" in out

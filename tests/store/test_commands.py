@@ -6,8 +6,12 @@ import json
 
 import pytest
 
+from sqlalchemy import func, select
+
 from fixbench.cli import main
 from fixbench.store import open_store
+from fixbench.store.digest import content_digest
+from fixbench.store.models import Case
 from fixbench.store.people import add_device, add_technician
 from tests.store.conftest import RATINGS, START, record_case
 
@@ -54,3 +58,19 @@ def test_export_of_a_damaged_file_says_so_and_offers_the_backup(shop_file, capsy
 def test_demo_db_refuses_an_existing_file(shop_file, capsys):
     assert main(["demo-db", str(shop_file)]) == 2
     assert "already exists" in capsys.readouterr().err
+
+
+def test_demo_db_builds_one_self_contained_file_and_prints_its_digest(tmp_path, capsys):
+    path = tmp_path / "demo.sqlite"
+    assert main(["demo-db", str(path), "--seed", "3", "--days", "20"]) == 0
+    out = capsys.readouterr().out
+    assert "built the demo shop" in out and "(seed 3, 20 days)" in out
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["demo.sqlite"]  # no WAL, no leftovers
+    store = open_store(path)
+    try:
+        digest = content_digest(store)
+        with store.session() as session:
+            cases = session.scalar(select(func.count()).select_from(Case))
+    finally:
+        store.close()
+    assert f"{cases} cases" in out and f"content digest: {digest}" in out

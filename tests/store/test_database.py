@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import multiprocessing
 import os
 import signal
 import subprocess
@@ -12,7 +11,7 @@ import textwrap
 from sqlalchemy import func, select
 
 from fixbench.store import open_store
-from fixbench.store.cases import RankedSuspect, add_reading, open_case
+from fixbench.store.cases import open_case
 from fixbench.store.models import Reading
 from fixbench.store.people import add_device, add_technician
 from tests.store.conftest import RATINGS
@@ -48,26 +47,30 @@ def _setup_case(path):
     return case_id
 
 
-def _write_readings(path: str, case_id: int, label: str, count: int) -> None:
+BENCH_WRITER = textwrap.dedent("""
+    import sys
+    from fixbench.store import open_store
+    from fixbench.store.cases import RankedSuspect, add_reading
+    path, case_id, label, count = sys.argv[1], int(sys.argv[2]), sys.argv[3], int(sys.argv[4])
     store = open_store(path)
     for i in range(count):
         add_reading(store, case_id, check_id=f"{label}-{i}", typed=f"{i} V", value=float(i),
                     unit="V", outcome=None, suspects=[RankedSuspect("Q1.short", 0.5)])
     store.close()
+""")
 
 
 def test_two_processes_writing_one_file_lose_nothing(tmp_path):
     path = str(tmp_path / "shared.sqlite")
     case_id = _setup_case(path)
-    context = multiprocessing.get_context("spawn")
-    workers = [context.Process(target=_write_readings, args=(path, case_id, name, 150))
+    # Two separate interpreters, as two bench PCs would be (a script, so any pytest import mode
+    # works in the child).
+    workers = [subprocess.Popen([sys.executable, "-c", BENCH_WRITER, path, str(case_id), name,
+                                 "150"], stderr=subprocess.PIPE, text=True, cwd=os.getcwd())
                for name in ("bench-a", "bench-b")]
-    for worker in workers:
-        worker.start()
-    for worker in workers:
-        worker.join(timeout=120)
+    errors = [worker.communicate(timeout=120)[1] for worker in workers]
     # A "database is locked" error would end a worker with a non-zero exit code.
-    assert [w.exitcode for w in workers] == [0, 0]
+    assert [w.returncode for w in workers] == [0, 0], errors
     store = open_store(path)
     with store.session() as session:
         seqs = session.scalars(select(Reading.seq).order_by(Reading.seq)).all()

@@ -8,7 +8,8 @@ from datetime import timedelta
 import pytest
 
 from fixbench.knowledge import load_knowledge
-from fixbench.store.demo_plan import (SHOP_DAYS, SHOP_END, TECHNICIANS, TRAINEES,
+from fixbench.physics.ratings import parse_ratings
+from fixbench.store.demo_plan import (MODELS, SHOP_DAYS, SHOP_END, TECHNICIANS, TRAINEES,
                                       catalogue_from_knowledge, plan_practice, plan_shop)
 
 
@@ -58,13 +59,42 @@ def test_comebacks_are_the_same_unit_within_ninety_days_of_a_repair(catalogue):
         assert timedelta(0) < case.opened_at - earlier.opened_at <= timedelta(days=90)
 
 
-def test_outcomes_include_unrepairable_units_and_bench_minutes_are_plausible(catalogue):
+def test_outcomes_include_unrepairable_units_and_paces_are_plausible(catalogue):
     cases = plan_shop(1, catalogue)
     outcomes = Counter(c.outcome for c in cases)
     assert outcomes["repaired"] > len(cases) * 0.6
     assert outcomes["not_economical"] > 0 and outcomes["returned_unrepaired"] > 0
-    minutes = sorted(c.bench_minutes for c in cases)
-    assert 15 <= minutes[len(minutes) // 2] <= 60 and minutes[0] >= 5 and minutes[-1] < 300
+    paces = sorted(c.pace for c in cases)
+    assert 0.4 < paces[0] and paces[-1] < 3.0 and 0.8 < paces[len(paces) // 2] < 1.3
+    slowest = max(TECHNICIANS, key=lambda t: t[1])[0]
+    fastest = min(TECHNICIANS, key=lambda t: t[1])[0]
+    mean = lambda name: sum(c.pace for c in cases if c.technician == name) / sum(  # noqa: E731
+        c.technician == name for c in cases)
+    assert mean(slowest) > mean(fastest)
+
+
+def test_every_unit_has_a_family_fault_and_ratings_the_engine_reads(catalogue):
+    cases = plan_shop(1, catalogue)
+    assert {c.device.family_id for c in cases} == {"pwm_flyback", "self_oscillating",
+                                                   "primary_side"}
+    for case in cases:
+        assert case.fault.family_id == case.device.family_id
+        ratings = parse_ratings(case.device.bench_ratings)
+        assert ratings.bench_mains == 230.0 and ratings.mains_hz == 50.0
+    labels = {(m.family_id, m.label["output"], m.label["current"], m.label["mains"])
+              for m in MODELS}
+    # The ratings the brief sets per family (self-oscillating on 230 V only, the others universal).
+    assert ("self_oscillating", "5 V", "1 A", "230 V") in labels
+    assert ("primary_side", "5 V", "2 A", "100-240 V") in labels
+    assert {("pwm_flyback", "5 V", "2 A", "100-240 V"),
+            ("pwm_flyback", "19 V", "3.4 A", "100-240 V")} <= labels
+    assert any(f == "pwm_flyback" and out == "12 V" for f, out, _, _ in labels)
+
+
+def test_days_limit_the_history_to_the_last_days_before_the_shop_end(catalogue):
+    short = plan_shop(1, catalogue, days=60)
+    assert 20 <= len(short) <= 120
+    assert short[0].opened_at >= SHOP_END - timedelta(days=60)
 
 
 def test_trainees_practise_and_improve(catalogue):

@@ -70,3 +70,25 @@ def test_case_json_lists_repairs(bench):
     add_repair_action(store, case_id, part_id="C5", action="replaced", parts_cost_cents=95)
     assert case_as_json(store, "J-2")["record"]["repairs"] == [
         {"part": "C5", "fault": None, "action": "replaced", "parts_cost_cents": 95}]
+
+
+def test_a_reading_taken_back_is_left_out_of_the_case_file(tmp_path):
+    from fixbench.store import open_store
+    from fixbench.store.bench_log import withdraw_last_reading
+    from fixbench.store.cases import add_reading, open_case
+    from fixbench.store.export import case_as_json
+    from fixbench.store.people import add_device, add_technician
+
+    store = open_store(tmp_path / "undo.sqlite")
+    tech = add_technician(store, "Ines Vale")
+    device = add_device(store, make="Quillon", model="Q-5", kind="USB charger",
+                        label_ratings={"output": "5 V", "current": "1 A"})
+    case_id = open_case(store, ticket_ref="UN-1", device_id=device, technician_id=tech,
+                        family_id="pwm_flyback", ratings={"mains": "230 V", "output": "5 V", "current": "1 A"})
+    add_reading(store, case_id, check_id="symptom_dead", typed="yes", value=None, unit=None, outcome="yes", suspects=[])
+    add_reading(store, case_id, check_id="fuse_resistance", typed="0.1", value=0.1, unit="ohm", outcome="ok", suspects=[])
+    withdraw_last_reading(store, case_id)
+    data = case_as_json(store, case_id)
+    assert data["readings"] == [{"check": "symptom_dead", "value": "yes"}]
+    assert data["record"]["withdrawn_readings"] == [{"check": "fuse_resistance", "value": "0.1"}]
+    store.close()

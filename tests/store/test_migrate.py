@@ -11,6 +11,7 @@ from alembic.runtime.migration import MigrationContext
 from sqlalchemy import DateTime, bindparam, text
 
 from fixbench.store import open_store
+from fixbench.store.case_flags import recompute_all_flags
 from fixbench.store.migrate import MigrationBrokeForeignKeys, current_revision, head_revision, upgrade
 from fixbench.store.models import Base
 
@@ -52,6 +53,10 @@ def _fill_v1(connection, cases: int) -> None:
         connection.execute(_sql(
             "INSERT INTO repair_actions (case_id, part_id, action, parts_cost_cents, done_at, note)"
             " VALUES (:c, 'Q1', 'replaced', 150, :at, '')"), {"c": c, "at": now})
+        if c % 10 == 7:  # every tenth case failed its first verification
+            connection.execute(_sql(
+                "INSERT INTO verifications (case_id, check_id, typed, passed, entered_at) "
+                "VALUES (:c, 'output_voltage', '0 V', false, :at)"), {"c": c, "at": now})
         connection.execute(_sql(
             "INSERT INTO verifications (case_id, check_id, typed, passed, entered_at) "
             "VALUES (:c, 'output_voltage', '5 V', true, :at)"), {"c": c, "at": now})
@@ -85,7 +90,22 @@ def test_first_schema_database_with_rows_upgrades_keeping_every_row(store_url):
         assert current_revision(connection) == head_revision()
         tops = connection.execute(text("SELECT DISTINCT top_suspect_fault FROM cases")).all()
     assert tops == [("Q1.short",)]  # filled from the rank-1 suspect of the last reading
+    # One unit, every case opened and closed at the same moment: each repaired case but the last
+    # (by opening time, then id) has a next case 0 days after its closing, so it came back.
+    flags = _flags(store)
+    assert [c for c, (back, _) in flags.items() if not back] == [60]
+    assert [c for c, (_, failed) in flags.items() if failed] == [7, 17, 27, 37, 47, 57]
+    # The migration's frozen backfill and the store's live rule agree.
+    with store.engine.begin() as connection:
+        recompute_all_flags(connection)
+    assert _flags(store) == flags
     store.close()
+
+
+def _flags(store) -> dict[int, tuple[bool, bool]]:
+    with store.engine.connect() as connection:
+        return {c: (bool(back), bool(failed)) for c, back, failed in connection.execute(text(
+            "SELECT id, came_back, failed_verification FROM cases ORDER BY id"))}
 
 
 def test_migrated_schema_matches_the_models(store_url):

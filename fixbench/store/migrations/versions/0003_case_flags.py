@@ -2,10 +2,11 @@
 
 Adds ``cases.came_back`` (a repaired case whose unit was opened again as the next case of that
 device within 90 days of the closing) and ``cases.failed_verification`` (at least one verification
-of the case failed), fills both from the existing rows, and indexes what the per-technician and
-repair-rate figures read, so those figures stop needing a window over every device and a join to
-the verifications. On SQLite the table is rebuilt in batch mode, as in 0002, under the
-foreign-keys-off discipline of ``fixbench.store.migrate``.
+of the case failed), fills both from the existing rows, and adds covering indexes for the owner's
+figures, so the comeback and first-time-fix figures stop needing a window over every device and a
+join to the verifications, and no figure visits the case rows themselves. On SQLite the table is
+rebuilt in batch mode, as in 0002, under the foreign-keys-off discipline of
+``fixbench.store.migrate``.
 
 The backfill SQL is a frozen copy of the rule at this revision (a migration must not change when
 application code does); ``fixbench.store.case_flags`` holds the live rule, and the v1 -> head test
@@ -23,10 +24,19 @@ down_revision = "0002"
 branch_labels = None
 depends_on = None
 
+# Covering indexes for the owner's figures: each figure filters on status (and the opening date
+# for a period) and reads only columns held in one of these, so SQLite answers it from the index
+# without visiting the wide case rows.
 NEW_INDEXES = {
-    "ix_cases_technician_flow": ["technician_id", "status", "outcome", "came_back",
-                                 "failed_verification"],
-    "ix_cases_status_flow": ["status", "outcome", "came_back", "failed_verification"],
+    "ix_cases_fig_technician": ["status", "technician_id", "bench_minutes", "outcome", "came_back",
+                                "failed_verification", "opened_at"],
+    "ix_cases_fig_minutes": ["status", "bench_minutes", "opened_at"],
+    "ix_cases_fig_family": ["status", "family_id", "outcome", "opened_at"],
+    "ix_cases_fig_fault": ["status", "confirmed_fault", "outcome", "opened_at",
+                           "top_suspect_fault"],
+    "ix_cases_fig_part": ["status", "confirmed_part", "outcome", "opened_at"],
+    "ix_cases_fig_stage": ["status", "confirmed_stage", "outcome", "opened_at"],
+    "ix_cases_fig_device": ["status", "device_id", "outcome", "opened_at"],
 }
 
 _DAYS = {

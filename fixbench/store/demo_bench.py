@@ -1,0 +1,179 @@
+"""One demo case at the bench, played by the engine: the guided diagnosis, the repair, the proof.
+
+A simulated unit with the case's true fault (meter tolerance on, a few readings misread) is
+measured in the order the engine proposes, and the engine's ranked suspects are kept after each
+reading, until it concludes. The repair follows the conclusion: its parts are replaced at their
+cost, the parts it lists to test before power-up are tested (and replaced if they did fail). Then
+the verification checks the conclusion names are read on the unit as repaired: if a failed part
+was missed, the readings show it, the technician replaces what is still bad ("second look") and
+verifies again on the now healthy unit. Bench minutes are the book minutes of every check, part
+and verification; the technician's pace is applied by the writer.
+
+Everything here is deterministic for a seed and touches no database.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from fixbench.engine import start_diagnosis
+from fixbench.engine.hypotheses import NO_FAULT
+from fixbench.engine.readings import read
+from fixbench.engine.repair_order import REPLACE_MINUTES
+from fixbench.engine.simulate import simulated_unit
+from fixbench.knowledge.model import Family
+from fixbench.physics.ratings import parse_ratings
+from fixbench.store.cases import RankedSuspect
+
+WRONG_READING_RATE = 0.03  # a misread scale or a slipped probe, now and then [practice]
+TEST_MINUTES = 3.0  # test one part out of circuit before power-up [practice]
+MAX_READINGS = 60  # the engine concludes long before this; a guard, not a rule
+KEPT_SUSPECTS = 5  # suspects kept per reading: the history shows the first three
+
+
+@dataclass(frozen=True)
+class BenchStep:
+    """One reading the engine asked for, what the meter showed, and the suspects after it."""
+
+    check_id: str
+    typed: str
+    value: float | None
+    unit: str | None
+    outcome: str | None
+    suspects: tuple[RankedSuspect, ...]
+    minutes: float
+
+
+@dataclass(frozen=True)
+class PartWork:
+    part_id: str
+    fault_id: str | None
+    action: str  # "replaced" or "tested"
+    cost_cents: int
+    note: str
+    minutes: float
+
+
+@dataclass(frozen=True)
+class VerifyReading:
+    check_id: str
+    typed: str
+    value: float | None
+    unit: str | None
+    outcome: str | None
+    passed: bool
+    minutes: float
+
+
+@dataclass(frozen=True)
+class RepairRound:
+    work: tuple[PartWork, ...]
+    verification: tuple[VerifyReading, ...]
+
+    @property
+    def passed(self) -> bool:
+        return all(v.passed for v in self.verification)
+
+
+@dataclass(frozen=True)
+class BenchSession:
+    """What the bench saw for one case: readings, the engine's verdict, and repair rounds."""
+
+    steps: tuple[BenchStep, ...]
+    concluded: tuple[str, ...]  # the engine's root fault (or group it could not split)
+    confirmed_fault: str | None  # what the shop confirms once the unit works, None if nothing
+    rounds: tuple[RepairRound, ...]
+
+    @property
+    def diagnosis_minutes(self) -> float:
+        return sum(step.minutes for step in self.steps)
+
+    @property
+    def repair_minutes(self) -> float:
+        return sum(w.minutes for r in self.rounds for w in r.work) + sum(
+            v.minutes for r in self.rounds for v in r.verification)
+
+
+def engine_bench_session(family: Family, ratings: dict, fault_id: str, seed: int,
+                         repair: bool = True) -> BenchSession:
+    """Diagnose a simulated unit with ``fault_id`` by the engine's own proposals; then repair it."""
+    parsed = parse_ratings(ratings)
+    state = start_diagnosis(family, parsed)
+    unit = simulated_unit(family, parsed, fault_id, seed, wrong_rate=WRONG_READING_RATE)
+    steps = []
+    while state.next_check is not None and len(steps) < MAX_READINGS:
+        proposal = state.next_check
+        text = unit.measure(proposal.check.id)
+        state = state.with_reading(proposal.check.id, text)
+        taken = state.readings[-1]
+        steps.append(BenchStep(
+            proposal.check.id, taken.text, taken.value, taken.unit, taken.outcome,
+            tuple(RankedSuspect.from_engine(s) for s in state.suspects[:KEPT_SUSPECTS]),
+            float(proposal.minutes)))
+    conclusion = state.final_conclusion()
+    if not repair:
+        return BenchSession(tuple(steps), conclusion.faults, None, ())
+    failed = dict(unit.modes)  # every part really failed, including a fuse blown on the bench
+    rounds, fixed = [], set()
+    work = []
+    for action in conclusion.replace:
+        work.append(_replaced(family, action.part, _root_of(family, conclusion.faults, action.part),
+                              "replaced as the diagnosis concluded"))
+        fixed.add(action.part)
+    for action in conclusion.test_before_power:
+        if action.part in fixed:
+            continue
+        if action.part in failed:
+            work.append(_replaced(family, action.part, None, "failed its test before power-up"))
+            fixed.add(action.part)
+        else:
+            work.append(PartWork(action.part, None, "tested", 0, "tested good before power-up",
+                                 TEST_MINUTES))
+    rounds.append(RepairRound(tuple(work), _verify(family, parsed, conclusion.verify, failed,
+                                                   fixed, seed)))
+    if not rounds[-1].passed:
+        missed = [part for part in failed if part not in fixed]
+        work = [_replaced(family, part, None, "found on a second look after a failed check")
+                for part in missed]
+        fixed.update(missed)
+        rounds.append(RepairRound(tuple(work), _verify(family, parsed, conclusion.verify, failed,
+                                                       fixed, seed + 1)))
+    confirmed = _confirmed(family, fault_id, conclusion.faults, failed, fixed)
+    return BenchSession(tuple(steps), conclusion.faults, confirmed, tuple(rounds))
+
+
+def _root_of(family: Family, faults: tuple[str, ...], part_id: str) -> str | None:
+    return next((f for f in faults if f != NO_FAULT and family.fault(f).part == part_id), None)
+
+
+def _replaced(family: Family, part_id: str, fault_id: str | None, note: str) -> PartWork:
+    cost = family.part(part_id).cost
+    return PartWork(part_id, fault_id, "replaced", round(cost * 100), note, REPLACE_MINUTES)
+
+
+def _verify(family, ratings, steps, failed: dict, fixed: set, seed: int) -> tuple:
+    """The verification readings of the unit as repaired (still faulty where a part was missed)."""
+    still_bad = {part: mode for part, mode in failed.items() if part not in fixed}
+    unit = simulated_unit(family, ratings, NO_FAULT, seed, modes=still_bad)
+    out = []
+    for step in steps:
+        check_model = unit.model.checks[unit.model.check_index(step.check)]
+        reading = read(check_model, unit.measure(step.check))
+        out.append(VerifyReading(step.check, reading.text, reading.value, reading.unit,
+                                 reading.outcome, reading.in_band,
+                                 float(check_model.check.minutes)))
+    return tuple(out)
+
+
+def _confirmed(family: Family, fault_id: str, concluded: tuple[str, ...], failed: dict,
+               fixed: set) -> str | None:
+    """The root fault the shop writes down once the unit works.
+
+    With the true root's part replaced, the bad part was in hand: the true fault. If the unit
+    verified without it (a fault the proof readings cannot see), the shop believes the engine.
+    """
+    if fault_id == NO_FAULT or not failed:
+        return None
+    if family.fault(fault_id).part in fixed:
+        return fault_id
+    return next((f for f in concluded if f != NO_FAULT), None)

@@ -1,0 +1,203 @@
+"""`fixbench benchmark ui`: how fast the window appears and how fast the bench answers a reading.
+
+- Start-up: each run is a fresh ``python -c`` subprocess, timed by this process from launch to the
+  line the child prints when its first window has been shown (on the first turn of its event
+  loop). fixbench's window is compared with a bare PySide6 window started the same way; runs
+  alternate between the two so a busy machine slows both alike. Medians are reported; the target is
+  a ratio of at most 2.0.
+- Reading update: the real main window, offscreen, on a fresh temporary database; a simulated unit
+  of the largest family (most checks) is diagnosed through the step card, and each reading is
+  timed from the Enter key to the moment the suspects and the next step are on screen and the
+  reading is committed to the database. Target: median at most 100 ms.
+"""
+
+from __future__ import annotations
+
+import os
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+STARTUP_RUNS = 5
+READINGS = 30
+STARTUP_TARGET = 2.0
+READING_TARGET_MS = 100.0
+TIMEOUT_S = 120
+
+BARE = """
+import os, sys
+from PySide6.QtCore import QTimer
+from PySide6.QtWidgets import QApplication, QMainWindow
+app = QApplication(sys.argv[:1])
+window = QMainWindow()
+window.resize(1366, 768)
+window.show()
+QTimer.singleShot(0, lambda: (print("shown", flush=True), os._exit(0)))
+app.exec()
+"""
+FIXBENCH = """
+import os, sys
+from fixbench.ui.main_window import run_app
+run_app(sys.argv[1], on_shown=lambda window: (print("shown", flush=True), os._exit(0)))
+"""
+
+
+def _environment() -> dict[str, str]:
+    env = dict(os.environ)
+    from fixbench.app import display_available
+
+    if not display_available():
+        env["QT_QPA_PLATFORM"] = "offscreen"
+    return env
+
+
+def _time_to_window(code: str, args: list[str], env: dict[str, str]) -> float:
+    start = time.perf_counter()
+    child = subprocess.Popen([sys.executable, "-c", code, *args], stdout=subprocess.PIPE,
+                             stderr=subprocess.PIPE, text=True, env=env)
+    try:
+        for line in child.stdout:
+            if line.strip() == "shown":
+                return time.perf_counter() - start
+        raise RuntimeError(f"the window did not show: {child.stderr.read()[-2000:]}")
+    finally:
+        child.kill()
+        child.wait(TIMEOUT_S)
+
+
+def measure_startup(database: Path, runs: int = STARTUP_RUNS) -> dict:
+    env = _environment()
+    _time_to_window(BARE, [], env)  # warm the disk cache for both alike
+    _time_to_window(FIXBENCH, [str(database)], env)
+    bare, ours = [], []
+    for _ in range(runs):
+        bare.append(_time_to_window(BARE, [], env))
+        ours.append(_time_to_window(FIXBENCH, [str(database)], env))
+    bare_ms, ours_ms = statistics.median(bare) * 1000, statistics.median(ours) * 1000
+    return {"startup_bare_ms_median": round(bare_ms, 1), "startup_fixbench_ms_median": round(ours_ms, 1),
+            "startup_ratio": round(ours_ms / bare_ms, 3), "startup_runs": runs,
+            "qt_platform": env.get("QT_QPA_PLATFORM", "default")}
+
+
+def _largest_family(knowledge):
+    return max(knowledge.families.values(), key=lambda f: (len(f.checks), len(f.faults)))
+
+
+def measure_reading_update(folder: Path, readings: int = READINGS) -> dict:
+    os.environ.setdefault("QT_QPA_PLATFORM", "offscreen") if not _display() else None
+    from PySide6.QtCore import Qt
+    from PySide6.QtTest import QTest
+    from PySide6.QtWidgets import QApplication
+
+    from fixbench.engine import simulate_readings
+    from fixbench.physics.ratings import parse_ratings
+    from fixbench.store import open_store
+    from fixbench.store.people import add_technician
+    from fixbench.ui.bench.records import IntakeForm
+    from fixbench.ui.context import AppContext
+    from fixbench.ui.main_window import MainWindow
+
+    app = QApplication.instance() or QApplication(sys.argv[:1])
+    store = open_store(folder / "bench.sqlite")
+    add_technician(store, "Bench Timer")
+    window = MainWindow(AppContext(store))
+    window.resize(1366, 768)
+    window.show()
+    bench = window.screens["Bench"]
+    family = _largest_family(bench.context.knowledge)
+    ratings = {"mains": "230 V", "output": "5 V", "current": "2 A"}
+    faults = [f.id for f in family.faults]
+    times: list[float] = []
+    case = 0
+
+    def wait(condition) -> None:
+        deadline = time.perf_counter() + TIMEOUT_S
+        while not condition():
+            app.processEvents()
+            if time.perf_counter() > deadline:
+                raise RuntimeError("the bench did not answer in time")
+
+    while len(times) < readings:
+        fault = faults[case % len(faults)]
+        unit = simulate_readings(family, parse_ratings(ratings), fault, seed=case, noise=True)
+        bench.controller.open_case(IntakeForm(f"UI-BENCH-{case}", "Benchmark", "B-1", "", "phone charger",
+                                              family.id, ratings, ()))
+        wait(lambda: not bench.controller.busy)
+        bench.controller.acknowledge_cautions()
+        wait(lambda: not bench.controller.busy and bench.page == "guided")
+        card = bench.panels["guided"].card
+        while card.field.isEnabled() and len(times) < readings:
+            check_id = bench.controller.current_check_id()
+            card.field.edit.setText(unit[check_id])
+            kept = len(bench.controller.view.state.readings)
+            start = time.perf_counter()
+            QTest.keyClick(card.field.edit, Qt.Key.Key_Return)
+            wait(lambda: not bench.controller.busy
+                 and len(bench.controller.view.state.readings) == kept + 1)
+            app.processEvents()  # the repaint of the suspects, the picture and the next card
+            times.append(time.perf_counter() - start)
+        bench.controller.back_to_cases()
+        case += 1
+    window.close()
+    store.close()
+    ms = sorted(t * 1000 for t in times)
+    return {"reading_update_ms_median": round(statistics.median(ms), 2),
+            "reading_update_ms_p90": round(ms[int(0.9 * (len(ms) - 1))], 2),
+            "reading_update_ms_max": round(ms[-1], 2), "reading_update_samples": len(ms),
+            "reading_update_family": family.id}
+
+
+def _display() -> bool:
+    from fixbench.app import display_available
+
+    return display_available()
+
+
+def _startup_database(folder: Path) -> Path:
+    from fixbench.store import open_store
+    from fixbench.store.people import add_technician
+
+    path = folder / "startup.sqlite"
+    store = open_store(path)
+    add_technician(store, "Bench Timer")
+    store.close()
+    return path
+
+
+def run_ui_benchmark(cases: int) -> dict:
+    with tempfile.TemporaryDirectory(prefix="fixbench-ui-") as temp:
+        folder = Path(temp)
+        result = {"targets": {"startup_ratio": STARTUP_TARGET, "reading_update_ms_median": READING_TARGET_MS}}
+        result.update(measure_startup(_startup_database(folder)))
+        result.update(measure_reading_update(folder))
+    try:
+        from fixbench.ui.review.benchmark import measure_review
+    except ModuleNotFoundError as err:
+        result["review"] = None
+        result["review_note"] = f"not measured: {err.name} is not installed yet"
+    else:
+        result["review"] = measure_review(cases)
+    return result
+
+
+def print_ui_report(result: dict) -> None:
+    ok = lambda good: "ok" if good else "OVER TARGET"
+    print(f"Start-up to first window (median of {result['startup_runs']} fresh processes each, "
+          f"Qt platform {result['qt_platform']}):")
+    print(f"  bare PySide6 window  {result['startup_bare_ms_median']:8.1f} ms")
+    print(f"  fixbench window      {result['startup_fixbench_ms_median']:8.1f} ms")
+    print(f"  ratio                {result['startup_ratio']:8.2f}   (target <= {STARTUP_TARGET:g}: "
+          f"{ok(result['startup_ratio'] <= STARTUP_TARGET)})")
+    print(f"Enter on a reading to updated suspects and next step ({result['reading_update_family']}, "
+          f"{result['reading_update_samples']} readings, saved to SQLite each time):")
+    print(f"  median {result['reading_update_ms_median']:.1f} ms, 90th percentile "
+          f"{result['reading_update_ms_p90']:.1f} ms, worst {result['reading_update_ms_max']:.1f} ms   "
+          f"(target median <= {READING_TARGET_MS:g} ms: "
+          f"{ok(result['reading_update_ms_median'] <= READING_TARGET_MS)})")
+    if result.get("review") is None:
+        print(f"Review screens: {result.get('review_note', 'not measured')}")
+    else:
+        print("Review screens: " + ", ".join(f"{k} {v}" for k, v in result["review"].items()))

@@ -1,0 +1,126 @@
+"""The window for one case: its card, its timeline, and a re-run through today's engine.
+
+Renders a :class:`CaseStory` (built off the GUI thread by :mod:`timeline`) as a timeline the
+owner reads top to bottom; readings outside the healthy band are marked in words as well as colour.
+"""
+
+from __future__ import annotations
+
+from html import escape
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtGui import QKeySequence
+from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QLabel, QPushButton,
+                               QTextBrowser, QVBoxLayout, QWidget)
+
+from fixbench.ui.context import AppContext
+from fixbench.ui.review.busy import BusyStrip
+from fixbench.ui.review.timeline import CaseStory, Rerun, load_case_story, rerun_case
+from fixbench.ui.workers import run_in_background
+
+KIND_WORDS = {"intake": "Intake", "reading": "Reading", "skipped": "Skipped", "repair": "Repair",
+              "verification": "Verification", "closed": "Closed", "amendment": "Amendment"}
+KIND_COLOURS = {"intake": "#35506b", "reading": "#2f5d50", "skipped": "#666666", "repair": "#7a4b12",
+                "verification": "#3b5a8c", "closed": "#444444", "amendment": "#7b2d5b"}
+
+
+def timeline_html(story: CaseStory) -> str:
+    parts = []
+    for step in story.steps:
+        mark = ""
+        if step.in_band is True:
+            mark = " <span style='color:#2b6b2b'>[in band]</span>"
+        elif step.in_band is False:
+            mark = " <span style='color:#a0281c'><b>[OUT OF BAND]</b></span>"
+        colour = KIND_COLOURS.get(step.kind, "#333")
+        details = "".join(f"<div style='margin-left:18px'>{escape(line)}</div>"
+                          for line in step.details)
+        parts.append(f"<p style='margin:6px 0'><span style='color:#666'>{step.at:%Y-%m-%d %H:%M}"
+                     f"</span> &nbsp;<b style='color:{colour}'>{KIND_WORDS.get(step.kind, step.kind)}"
+                     f"</b> &nbsp;{escape(step.headline)}{mark}{details}</p>")
+    return "".join(parts)
+
+
+def facts_html(story: CaseStory, per_row: int = 3) -> str:
+    shown = [(label, value) for label, value in story.facts if value]
+    cells = [f"<td style='color:#555; padding-right:6px'>{escape(label)}</td>"
+             f"<td style='padding-right:28px'><b>{escape(value)}</b></td>" for label, value in shown]
+    rows = ["".join(cells[i:i + per_row]) for i in range(0, len(cells), per_row)]
+    return "<table>" + "".join(f"<tr>{row}</tr>" for row in rows) + "</table>"
+
+
+class CaseStoryWindow(QDialog):
+    report_requested = Signal(int)  # case id: print the customer's job report
+
+    def __init__(self, context: AppContext, case_id: int, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.context, self.case_id = context, case_id
+        self.story: CaseStory | None = None
+        self.rerun: Rerun | None = None
+        self.setWindowTitle("Case")
+        self.resize(980, 680)
+        self.heading = QLabel("Reading the case...")
+        self.heading.setStyleSheet("font-size: 15pt; font-weight: 600;")
+        self.facts = QLabel(wordWrap=True)
+        self.facts.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+        self.timeline = QTextBrowser()
+        self.timeline.setOpenLinks(False)
+        self.rerun_text = QLabel(wordWrap=True)
+        self.busy = BusyStrip()
+        self.rerun_button = QPushButton("&Re-run with today's engine")
+        self.rerun_button.setShortcut(QKeySequence("Ctrl+R"))
+        self.report_button = QPushButton("Customer job &report (PDF)...")
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        buttons.addButton(self.rerun_button, QDialogButtonBox.ButtonRole.ActionRole)
+        buttons.addButton(self.report_button, QDialogButtonBox.ButtonRole.ActionRole)
+        buttons.rejected.connect(self.reject)
+        layout = QVBoxLayout(self)
+        layout.addWidget(self.heading)
+        layout.addWidget(self.facts)
+        layout.addWidget(QLabel("<b>Timeline</b>"))
+        layout.addWidget(self.timeline, 1)
+        layout.addWidget(self.rerun_text)
+        layout.addWidget(self.busy)
+        layout.addWidget(buttons)
+        self.rerun_button.setEnabled(False)
+        self.rerun_button.clicked.connect(self.start_rerun)
+        self.report_button.clicked.connect(lambda: self.report_requested.emit(self.case_id))
+        self.busy.set_busy(True)
+        store, kb = context.store, context.knowledge
+        run_in_background(lambda: load_case_story(store, kb, case_id), self.show_story,
+                          self._failed)
+
+    def show_story(self, story: CaseStory) -> None:
+        self.busy.set_busy(False)
+        self.story = story
+        self.setWindowTitle(f"Case {story.ticket}")
+        self.heading.setText(f"{story.ticket}: {story.title}")
+        self.facts.setText(facts_html(story))
+        self.timeline.setHtml(timeline_html(story))
+        self.rerun_button.setEnabled(bool(story.readings))
+        self.timeline.setFocus()
+
+    def start_rerun(self) -> None:
+        if self.story is None:
+            return
+        self.rerun_button.setEnabled(False)
+        self.busy.set_busy(True)
+        self.busy.tell("Running the readings through today's engine...")
+        kb, story = self.context.knowledge, self.story
+        run_in_background(lambda: rerun_case(kb, story), self.show_rerun, self._failed)
+
+    def show_rerun(self, rerun: Rerun) -> None:
+        self.busy.set_busy(False)
+        self.busy.tell("")
+        self.rerun = rerun
+        text = rerun.summary
+        if rerun.skipped:
+            text += " Readings today's engine could not take: " + "; ".join(rerun.skipped)
+        colour = "#a0281c" if rerun.changed else "#2b6b2b"
+        self.rerun_text.setText(f"<span style='color:{colour}'>{escape(text, quote=False)}</span>")
+        self.rerun_button.setEnabled(True)
+
+    def _failed(self, err: Exception) -> None:
+        self.busy.set_busy(False)
+        self.busy.warn(f"This case could not be shown: {err}")
+        self.heading.setText("Case not shown")

@@ -1,0 +1,121 @@
+"""The Figures screen's charts, drawn with pyqtgraph: labelled bars that can be clicked, lines by
+month, and the spread of bench minutes. Each chart only draws what it is given."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+import pyqtgraph as pg
+from PySide6.QtCore import QPointF, Signal
+from PySide6.QtGui import QColor, QFont
+
+BAR_COLOUR = QColor("#3f6f8f")
+LINE_COLOURS = ("#3f6f8f", "#b5562b", "#4d8a4d", "#7b4f9a", "#8a7a2e")
+LABEL_CHARS = 40
+
+pg.setConfigOptions(antialias=True, background="w", foreground="#333333")
+
+
+def _short(label: str) -> str:
+    return label if len(label) <= LABEL_CHARS else label[:LABEL_CHARS - 1] + "\u2026"
+
+
+class _Chart(pg.PlotWidget):
+    def __init__(self, title: str, parent=None) -> None:
+        # No context menu: asked for here, pyqtgraph never builds the view's menu at all.
+        super().__init__(parent, enableMenu=False)
+        self.setTitle(title, size="11pt", color="#222222")
+        self.setMouseEnabled(x=False, y=False)
+        self.hideButtons()
+        self.showGrid(x=True, y=True, alpha=0.15)
+        self.setMinimumHeight(180)
+        font = QFont()
+        font.setPointSize(9)
+        for side in ("left", "bottom"):
+            self.getAxis(side).setTickFont(font)
+
+
+class BarChart(_Chart):
+    """Horizontal bars, largest on top; a click on a bar emits its index in the given order."""
+
+    bar_clicked = Signal(int)
+
+    def __init__(self, title: str, parent=None) -> None:
+        super().__init__(title, parent)
+        self.values: list[float] = []
+        self.scene().sigMouseClicked.connect(self._clicked)
+        self.setToolTip("Click a bar to list those cases on the History tab")
+
+    def show_bars(self, labels: Sequence[str], values: Sequence[float]) -> None:
+        self.clear()
+        self.values = [float(v) for v in values]
+        n = len(self.values)
+        # Row i (0 = largest) sits at y = n - 1 - i so the first bar is drawn on top.
+        ys = [n - 1 - i for i in range(n)]
+        if n:
+            self.addItem(pg.BarGraphItem(x0=0, y=ys, height=0.7, width=self.values,
+                                         brush=BAR_COLOUR, pen=pg.mkPen(None)))
+            for y, value in zip(ys, self.values):
+                text = pg.TextItem(f"{value:g}", color="#222222", anchor=(0, 0.5))
+                text.setPos(value, y)
+                self.addItem(text)
+        self.getAxis("left").setTicks([[(y, _short(label)) for y, label in zip(ys, labels)]])
+        self.setYRange(-0.6, max(n, 1) - 0.4, padding=0)
+        self.setXRange(0, max(self.values, default=1) * 1.15, padding=0)
+
+    def bar_centre(self, index: int) -> QPointF:
+        """Where bar ``index`` is on screen (widget coordinates), for keyboardless clicks in tests."""
+        n = len(self.values)
+        point = self.getPlotItem().vb.mapViewToScene(QPointF(self.values[index] / 2, n - 1 - index))
+        return self.mapFromScene(point)
+
+    def _clicked(self, event) -> None:
+        if not self.values:
+            return
+        point = self.getPlotItem().vb.mapSceneToView(event.scenePos())
+        n = len(self.values)
+        index = n - 1 - round(point.y())
+        if 0 <= index < n and abs(point.y() - (n - 1 - index)) <= 0.35 \
+                and 0 <= point.x() <= self.values[index]:
+            self.bar_clicked.emit(index)
+
+
+class MonthLines(_Chart):
+    """One or more lines over months, with a legend; values may be None (no cases that month)."""
+
+    def __init__(self, title: str, percent: bool = False, parent=None) -> None:
+        super().__init__(title, parent)
+        self.percent = percent
+        self.addLegend(offset=(10, 5))
+
+    def show_lines(self, months: Sequence[str], series: dict[str, Sequence[float | None]]) -> None:
+        self.clear()
+        xs = list(range(len(months)))
+        for colour, (name, values) in zip(LINE_COLOURS, series.items()):
+            points = [(x, v * 100 if self.percent else v) for x, v in zip(xs, values)
+                      if v is not None]
+            if points:
+                self.plot([p[0] for p in points], [p[1] for p in points], name=name,
+                          pen=pg.mkPen(colour, width=2), symbol="o", symbolSize=5,
+                          symbolBrush=colour, symbolPen=None)
+        step = max(1, len(months) // 8)
+        self.getAxis("bottom").setTicks([[(x, months[x]) for x in xs[::step]]])
+        self.setXRange(-0.5, max(len(months), 1) - 0.5, padding=0.02)
+        if self.percent:
+            self.setYRange(0, 100)
+            self.getAxis("left").setLabel("%")
+
+
+class MinutesSpread(_Chart):
+    """How many cases took each band of bench minutes, as upright bars."""
+
+    def __init__(self, title: str, parent=None) -> None:
+        super().__init__(title, parent)
+        self.getAxis("bottom").setLabel("bench minutes")
+        self.getAxis("left").setLabel("cases")
+
+    def show_bands(self, starts: Sequence[int], counts: Sequence[int], width: int) -> None:
+        self.clear()
+        if starts:
+            self.addItem(pg.BarGraphItem(x0=list(starts), height=list(counts), width=width * 0.92,
+                                         brush=BAR_COLOUR, pen=pg.mkPen(None)))

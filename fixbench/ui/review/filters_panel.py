@@ -1,0 +1,146 @@
+"""The history's filter panel: the owner picks dates, people, family, device, fault, outcome, text.
+
+Renders the choices it is given and forwards one :class:`CaseFilter` whenever any of them changes
+(typing is gathered for a moment first, so each keystroke does not start a query).
+"""
+
+from __future__ import annotations
+
+from datetime import date
+
+from PySide6.QtCore import QDate, Qt, QTimer, Signal
+from PySide6.QtWidgets import (QComboBox, QDateEdit, QFormLayout, QLineEdit, QPushButton,
+                               QVBoxLayout, QWidget)
+
+from fixbench.store.case_filters import CaseFilter, FilterChoices
+from fixbench.ui.review.names import TradeNames, family_name, outcome_name
+
+NO_DATE = QDate(2000, 1, 1)  # the date edit's minimum, shown as "any day"
+TYPING_PAUSE_MS = 300
+
+
+class FiltersPanel(QWidget):
+    changed = Signal(object)  # CaseFilter
+
+    def __init__(self, names: TradeNames, parent=None) -> None:
+        super().__init__(parent)
+        self.names = names
+        self.since, self.until = self._date_edit("Opened on or after"), self._date_edit("Opened on or before")
+        self.technician, self.family = QComboBox(), QComboBox()
+        self.device, self.fault, self.part, self.outcome = (QComboBox(), QComboBox(), QComboBox(),
+                                                           QComboBox())
+        self.text = QLineEdit(placeholderText="ticket, customer, notes, make...")
+        self.text.setClearButtonEnabled(True)
+        self.clear = QPushButton("&Clear filters")
+        form = QFormLayout()
+        form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
+        for label, widget in (("&From", self.since), ("&To", self.until),
+                              ("Tech&nician", self.technician), ("Fa&mily", self.family),
+                              ("&Device", self.device), ("Confirmed f&ault", self.fault),
+                              ("&Part", self.part), ("Out&come", self.outcome),
+                              ("&Search", self.text)):
+            form.addRow(label, widget)
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(0, 0, 0, 0)
+        layout.addLayout(form)
+        layout.addWidget(self.clear)
+        layout.addStretch(1)
+        self._typing = QTimer(self, singleShot=True, interval=TYPING_PAUSE_MS)
+        self._typing.timeout.connect(self._emit)
+        self.text.textChanged.connect(self._typing.start)
+        for combo in (self.technician, self.family, self.device, self.fault, self.part,
+                      self.outcome):
+            combo.setSizeAdjustPolicy(QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
+            combo.setMinimumContentsLength(14)
+            combo.currentIndexChanged.connect(self._emit)
+        for edit in (self.since, self.until):
+            edit.dateChanged.connect(self._emit)
+        self.clear.clicked.connect(lambda: self.show_filter(CaseFilter(), emit=True))
+
+    def _date_edit(self, tip: str) -> QDateEdit:
+        edit = QDateEdit(calendarPopup=True, displayFormat="yyyy-MM-dd")
+        edit.setMinimumDate(NO_DATE)
+        edit.setSpecialValueText("any day")
+        edit.setDate(NO_DATE)
+        edit.setToolTip(tip + " (set to the earliest date for any day)")
+        return edit
+
+    def set_choices(self, choices: FilterChoices) -> None:
+        """Fill the lists from what the record holds, keeping the current filter."""
+        current = self.current()
+        self._fill(self.technician, "Everyone", [(name, pid) for pid, name in choices.technicians])
+        self._fill(self.family, "Any family", [(family_name(f), f) for f in choices.families])
+        makes = sorted({make for make, _ in choices.devices})
+        devices = [(f"{make} (any model)", _device_key(make, None)) for make in makes]
+        devices += [(f"{make} {model}", _device_key(make, model)) for make, model in choices.devices]
+        self._fill(self.device, "Any device", sorted(devices))
+        faults = {fault: self.names.fault_label(fault, family) for family, fault in choices.faults}
+        self._fill(self.fault, "Any fault", sorted((label, f) for f, label in faults.items()))
+        parts = {part: f"{part}: {self.names.part(part)}" for part in choices.parts}
+        self._fill(self.part, "Any part", sorted((label, p) for p, label in parts.items()))
+        self._fill(self.outcome, "Any outcome", [(outcome_name(o), o) for o in choices.outcomes])
+        self.show_filter(current, emit=False)
+
+    @staticmethod
+    def _fill(combo: QComboBox, anything: str, items: list[tuple[str, object]]) -> None:
+        combo.blockSignals(True)
+        combo.clear()
+        combo.addItem(anything, None)
+        for label, value in items:
+            combo.addItem(label, value)
+        combo.blockSignals(False)
+
+    def current(self) -> CaseFilter:
+        device = _device_of(self.device.currentData())
+        return CaseFilter(since=_day(self.since), until=_day(self.until),
+                          technician_id=self.technician.currentData(),
+                          family=self.family.currentData(), make=device[0], model=device[1],
+                          fault=self.fault.currentData(), part=self.part.currentData(),
+                          outcome=self.outcome.currentData(), text=self.text.text().strip())
+
+    def show_filter(self, case_filter: CaseFilter, emit: bool) -> None:
+        """Set every widget to ``case_filter``; values the lists do not hold are added to them."""
+        widgets = (self.since, self.until, self.technician, self.family, self.device, self.fault,
+                   self.part, self.outcome, self.text)
+        for widget in widgets:
+            widget.blockSignals(True)
+        for edit, day in ((self.since, case_filter.since), (self.until, case_filter.until)):
+            edit.setDate(NO_DATE if day is None else QDate(day.year, day.month, day.day))
+        device = None if case_filter.make is None else _device_key(case_filter.make, case_filter.model)
+        for combo, value in ((self.technician, case_filter.technician_id),
+                             (self.family, case_filter.family), (self.device, device),
+                             (self.fault, case_filter.fault), (self.part, case_filter.part),
+                             (self.outcome, case_filter.outcome)):
+            index = combo.findData(value)
+            if index < 0:
+                combo.addItem(" ".join(str(v) for v in _device_of(value) if v)
+                              if combo is self.device else str(value), value)
+                index = combo.count() - 1
+            combo.setCurrentIndex(index)
+        self.text.setText(case_filter.text)
+        for widget in widgets:
+            widget.blockSignals(False)
+        if emit:
+            self._emit()
+
+    def _emit(self) -> None:
+        self.changed.emit(self.current())
+
+
+def _day(edit: QDateEdit) -> date | None:
+    chosen = edit.date()
+    if chosen == NO_DATE:
+        return None
+    return date(chosen.year(), chosen.month(), chosen.day())
+
+
+def _device_key(make: str, model: str | None) -> str:
+    # Combo data as plain text: Qt compares strings reliably, Python tuples it does not.
+    return f"{make}\t{model or ''}"
+
+
+def _device_of(key: str | None) -> tuple[str | None, str | None]:
+    if not key:
+        return None, None
+    make, model = key.split("\t", 1)
+    return make, model or None

@@ -1,0 +1,73 @@
+"""Words the owner reads in place of the engine's identifiers (families, faults, parts, checks).
+
+Titles come from the knowledge base; an identifier the knowledge base no longer knows (a case
+kept under an older knowledge file) is shown as it was stored rather than hidden.
+"""
+
+from __future__ import annotations
+
+from fixbench.knowledge import KnowledgeBase
+
+OUTCOME_WORDS = {
+    "repaired": "Repaired",
+    "not_economical": "Not worth repairing",
+    "no_fault_found": "No fault found",
+    "returned_unrepaired": "Returned unrepaired",
+}
+STATUS_WORDS = {"intake": "At intake", "diagnosing": "Diagnosing", "repairing": "Repairing",
+                "verifying": "Verifying", "closed": "Closed"}
+FAMILY_SHORT = {"pwm_flyback": "PWM flyback", "self_oscillating": "Self-oscillating",
+                "primary_side": "Primary-side regulated"}
+
+
+def family_name(family_id: str) -> str:
+    return FAMILY_SHORT.get(family_id, family_id.replace("_", " ").capitalize())
+
+
+def outcome_name(outcome: str | None, status: str = "closed") -> str:
+    if outcome is None:
+        return f"Open: {STATUS_WORDS.get(status, status).lower()}"
+    return OUTCOME_WORDS.get(outcome, outcome)
+
+
+class TradeNames:
+    """Looks up titles in the knowledge base, falling back to the stored identifier."""
+
+    def __init__(self, knowledge: KnowledgeBase) -> None:
+        self.knowledge = knowledge
+
+    def _family(self, family_id: str | None):
+        return self.knowledge.families.get(family_id) if family_id else None
+
+    def fault(self, fault_id: str | None, family_id: str | None = None) -> str:
+        if not fault_id:
+            return ""
+        if fault_id == "no_fault":
+            return "No fault in the supply"
+        families = [self._family(family_id)] if family_id else list(self.knowledge.families.values())
+        for family in families:
+            if family is not None and fault_id in {f.id for f in family.faults}:
+                return family.fault(fault_id).title
+        return fault_id
+
+    def fault_label(self, fault_id: str | None, family_id: str | None = None) -> str:
+        """Short form for a table cell or a chart bar: 'Q1.short: MOSFET shorted drain to source'."""
+        if not fault_id:
+            return ""
+        title = self.fault(fault_id, family_id)
+        return title if title == fault_id else f"{fault_id}: {title}"
+
+    def part(self, part_id: str | None, family_id: str | None = None) -> str:
+        if not part_id:
+            return ""
+        families = [self._family(family_id)] if family_id else list(self.knowledge.families.values())
+        for family in families:
+            if family is not None and part_id in {p.id for p in family.parts}:
+                return family.part(part_id).title
+        return part_id
+
+    def check(self, check_id: str, family_id: str) -> str:
+        family = self._family(family_id)
+        if family is not None and family.has_check(check_id):
+            return family.check(check_id).title
+        return check_id.replace("_", " ")

@@ -1,0 +1,198 @@
+"""One case's whole story, in the order it happened, and the same readings through today's engine.
+
+Plain Python (no widgets): :func:`load_case_story` reads the record and the knowledge base and
+returns frozen entries the case window draws; :func:`rerun_case` feeds the readings as typed to
+the engine of this build and says whether its conclusion differs from the one kept with the case.
+Expected bands are the healthy unit's, from the fault model of the case's family and ratings.
+"""
+
+from __future__ import annotations
+
+import json
+from dataclasses import dataclass
+from datetime import datetime
+
+from sqlalchemy import select
+
+from fixbench.engine import start_diagnosis
+from fixbench.engine.fault_model import FaultModel, cached_fault_model
+from fixbench.engine.readings import read
+from fixbench.knowledge import KnowledgeBase
+from fixbench.physics.ratings import parse_ratings
+from fixbench.quantities import ReadingError
+from fixbench.store.database import Store
+from fixbench.store.errors import StoreInputError
+from fixbench.store.models import (Amendment, Case, RepairAction, SkippedCheck, Verification,
+                                   WithdrawnReading)
+from fixbench.ui.review.names import TradeNames, family_name, outcome_name
+
+SUSPECTS_SHOWN = 3
+
+
+@dataclass(frozen=True)
+class Step:
+    """One line of the timeline: when, what kind, a headline and the lines under it."""
+
+    at: datetime
+    kind: str  # intake, reading, skipped, repair, verification, closed, amendment
+    headline: str
+    details: tuple[str, ...] = ()
+    in_band: bool | None = None  # readings and verifications: inside the healthy band?
+
+
+@dataclass(frozen=True)
+class CaseStory:
+    case_id: int
+    ticket: str
+    title: str  # "Pellamor PM-65 laptop adapter"
+    facts: tuple[tuple[str, str], ...]  # label, value: the case card
+    steps: tuple[Step, ...]
+    family_id: str
+    ratings: dict
+    readings: tuple[tuple[str, str], ...]  # (check id, typed) in the order taken
+    kept_first_suspect: str | None
+    confirmed_fault: str | None
+
+
+@dataclass(frozen=True)
+class Rerun:
+    today_faults: tuple[str, ...]
+    today_probability: float
+    kept_first_suspect: str | None
+    confirmed_fault: str | None
+    changed: bool
+    skipped: tuple[str, ...]  # readings today's engine could not take, and why
+    summary: str
+
+
+def _check_model(model: FaultModel | None, check_id: str):
+    """The check a stored id names: itself, or the check that reads that signal."""
+    if model is None:
+        return None
+    for candidate in model.checks:
+        if candidate.check.id == check_id or candidate.check.target == f"signal:{check_id}":
+            return candidate
+    return None
+
+
+def expected_band(model: FaultModel | None, check_id: str, typed: str) -> tuple[str, bool | None]:
+    check_model = _check_model(model, check_id)
+    if check_model is None:
+        return "no band known for this check", None
+    try:
+        in_band = read(check_model, typed).in_band
+    except ReadingError:
+        in_band = None
+    expected = (check_model.healthy.describe() if check_model.healthy is not None
+                else str(check_model.healthy_outcome))
+    return expected, in_band
+
+
+def fault_model_of(kb: KnowledgeBase, case: Case) -> FaultModel | None:
+    try:
+        return cached_fault_model(kb.family(case.family_id), parse_ratings(dict(case.ratings)))
+    except (KeyError, ReadingError):
+        return None  # shown as "no band known"; the record itself is still told in full
+
+
+def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
+    names = TradeNames(kb)
+    with store.session() as session:
+        case = session.get(Case, case_id)
+        if case is None:
+            raise StoreInputError(f"there is no case {case_id}")
+        model = fault_model_of(kb, case)
+        fam = case.family_id
+        steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician.name}",
+                      (f"{case.device.make} {case.device.model} ({case.device.kind}), "
+                       f"{family_name(fam)}",
+                       "Label: " + ", ".join(f"{k} {v}" for k, v in case.ratings.items())))]
+        previous: list[str] = []
+        withdrawn = dict(session.execute(
+            select(WithdrawnReading.reading_id, WithdrawnReading.withdrawn_at)
+            .where(WithdrawnReading.reading_id.in_([r.id for r in case.readings]))).all())
+        for reading in case.readings:
+            if reading.id in withdrawn:
+                steps.append(Step(reading.entered_at, "reading",
+                                  f"{reading.seq}. {names.check(reading.check_id, fam)} "
+                                  "(taken back)",
+                                  (f"Read: {reading.typed}; taken back at "
+                                   f"{withdrawn[reading.id]:%H:%M} and left out of the diagnosis",)))
+                continue
+            expected, in_band = expected_band(model, reading.check_id, reading.typed)
+            ranked = [s.fault_id for s in reading.suspects]
+            lines = [f"Read {reading.typed}; a healthy unit: {expected}",
+                     "Suspects: " + "; ".join(f"{names.fault_label(s.fault_id, fam)} "
+                                               f"{s.probability:.0%}"
+                                               for s in reading.suspects[:SUSPECTS_SHOWN])]
+            if previous and ranked and ranked[0] != previous[0]:
+                lines.append(f"First suspect changed from {previous[0]} to {ranked[0]}")
+            previous = ranked or previous
+            steps.append(Step(reading.entered_at, "reading",
+                              f"{reading.seq}. {names.check(reading.check_id, fam)}",
+                              tuple(lines), in_band))
+        for repair in session.scalars(select(RepairAction).where(RepairAction.case_id == case_id)):
+            steps.append(Step(repair.done_at, "repair",
+                              f"{repair.action.capitalize()} {repair.part_id}: "
+                              f"{names.part(repair.part_id, fam)}",
+                              (f"Parts cost {repair.parts_cost_cents / 100:.2f}",)
+                              + ((repair.note,) if repair.note else ())))
+        for skip in session.scalars(select(SkippedCheck).where(SkippedCheck.case_id == case_id)):
+            steps.append(Step(skip.skipped_at, "skipped",
+                              f"Could not measure: {names.check(skip.check_id, fam)}"))
+        for check in session.scalars(select(Verification).where(Verification.case_id == case_id)):
+            expected, in_band = expected_band(model, check.check_id, check.typed)
+            steps.append(Step(check.entered_at, "verification",
+                              f"Verified {names.check(check.check_id, fam)}: "
+                              f"{'passed' if check.passed else 'FAILED'}",
+                              (f"Read {check.typed}; a healthy unit: {expected}",), in_band))
+        if case.closed_at is not None:
+            steps.append(Step(case.closed_at, "closed", f"Closed: {outcome_name(case.outcome)}",
+                              (f"Bench time {case.bench_minutes} min",)))
+        for change in session.scalars(select(Amendment).where(Amendment.case_id == case_id)):
+            steps.append(Step(change.amended_at, "amendment",
+                              f"Amended {change.field.replace('_', ' ')} by {change.amended_by}",
+                              (f"{json.loads(change.old_value)} -> {json.loads(change.new_value)}",
+                               f"Why: {change.reason}")))
+        facts = (("Ticket", case.ticket_ref), ("Customer", case.customer_ref or ""),
+                 ("Technician", case.technician.name), ("Family", family_name(fam)),
+                 ("Serial", case.device.serial or ""),
+                 ("Outcome", outcome_name(case.outcome, case.status)),
+                 ("Confirmed fault", names.fault_label(case.confirmed_fault, fam)),
+                 ("Bench minutes", "" if case.bench_minutes is None else str(case.bench_minutes)),
+                 ("Notes", case.notes))
+        return CaseStory(case_id, case.ticket_ref,
+                         f"{case.device.make} {case.device.model} {case.device.kind}", facts,
+                         tuple(sorted(steps, key=lambda s: s.at)), fam, dict(case.ratings),
+                         tuple((r.check_id, r.typed) for r in case.readings
+                               if r.id not in withdrawn),
+                         case.top_suspect_fault, case.confirmed_fault)
+
+
+def rerun_case(kb: KnowledgeBase, story: CaseStory) -> Rerun:
+    """The case's readings through today's engine; ``changed`` if its first suspect differs."""
+    try:
+        state = start_diagnosis(kb.family(story.family_id), parse_ratings(story.ratings))
+    except (KeyError, ReadingError) as err:
+        raise StoreInputError(f"today's engine cannot take this case: {err}") from None
+    skipped = []
+    for check_id, typed in story.readings:
+        try:
+            state = state.with_reading(check_id, typed)
+        except (KeyError, ReadingError) as err:
+            skipped.append(f"{check_id} '{typed}': {err}")
+    conclusion = state.final_conclusion()
+    today = conclusion.faults
+    changed = story.kept_first_suspect is not None and story.kept_first_suspect not in today[:1]
+    names = TradeNames(kb)
+    verdict = "would change" if changed else "would stay the same"
+    summary = (f"Today's engine names {names.fault_label(today[0], story.family_id)} "
+               f"({conclusion.probability:.0%}); the case kept "
+               f"{names.fault_label(story.kept_first_suspect, story.family_id) or 'no suspect'}. "
+               f"The conclusion {verdict}.")
+    if story.confirmed_fault:
+        right = story.confirmed_fault in today
+        summary += (f" The confirmed fault was {story.confirmed_fault}: today's engine "
+                    f"{'agrees' if right else 'does not name it first'}.")
+    return Rerun(today, conclusion.probability, story.kept_first_suspect, story.confirmed_fault,
+                 changed, tuple(skipped), summary)

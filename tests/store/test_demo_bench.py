@@ -1,0 +1,85 @@
+"""A demo case played by the engine: its own proposals, its suspects, its conclusion, the proof."""
+
+from __future__ import annotations
+
+import pytest
+
+from fixbench.engine import start_diagnosis
+from fixbench.engine.simulate import simulated_unit
+from fixbench.knowledge import load_knowledge
+from fixbench.physics.ratings import parse_ratings
+from fixbench.store.cases import RankedSuspect
+from fixbench.store.demo_bench import (KEPT_SUSPECTS, TEST_MINUTES, WRONG_READING_RATE,
+                                       engine_bench_session)
+from fixbench.store.demo_plan import MODELS
+
+KB = load_knowledge()
+RATINGS = {m.family_id: {**m.label, "bench_mains": "230 V"} for m in MODELS}
+
+
+@pytest.mark.parametrize("family_id,fault_id", [("pwm_flyback", "Q1.short"),
+                                                ("self_oscillating", "R1.open"),
+                                                ("primary_side", "C3.dried")])
+def test_readings_and_suspects_are_the_engines_own_walk_on_the_simulated_unit(family_id,
+                                                                               fault_id):
+    family = KB.families[family_id]
+    played = engine_bench_session(family, RATINGS[family_id], fault_id, seed=11)
+    # Replay independently: the same unit (same seed and misread rate), the engine's proposals.
+    ratings = parse_ratings(RATINGS[family_id])
+    state = start_diagnosis(family, ratings)
+    unit = simulated_unit(family, ratings, fault_id, 11, wrong_rate=WRONG_READING_RATE)
+    for step in played.steps:
+        assert step.check_id == state.next_check.check.id
+        assert step.minutes == state.next_check.minutes
+        assert step.typed == unit.measure(step.check_id)
+        state = state.with_reading(step.check_id, step.typed)
+        assert step.suspects == tuple(RankedSuspect.from_engine(s)
+                                      for s in state.suspects[:KEPT_SUSPECTS])
+    assert state.next_check is None  # the walk ended where the engine concluded
+    assert played.concluded == state.conclusion.faults
+
+
+def test_repair_follows_the_conclusion_and_the_last_verification_passes():
+    family = KB.families["pwm_flyback"]
+    played = engine_bench_session(family, RATINGS["pwm_flyback"], "Q1.short", seed=3)
+    fresh = start_diagnosis(family, parse_ratings(RATINGS["pwm_flyback"]))
+    first = played.rounds[0]
+    replaced = {w.part_id for w in first.work if w.action == "replaced"}
+    assert "Q1" in replaced and played.confirmed_fault == "Q1.short"
+    for work in first.work:
+        if work.action == "replaced":
+            assert work.cost_cents == round(family.part(work.part_id).cost * 100)
+        else:
+            assert (work.cost_cents, work.minutes) == (0, TEST_MINUTES)
+    verify_checks = [v.check for v in fresh.final_conclusion().verify]
+    assert [v.check_id for v in played.rounds[-1].verification] == verify_checks
+    assert played.rounds[-1].passed
+
+
+def test_a_healthy_unit_is_concluded_healthy_and_gets_no_repair():
+    family = KB.families["self_oscillating"]
+    played = engine_bench_session(family, RATINGS["self_oscillating"], "no_fault", seed=4,
+                                  repair=False)
+    assert played.concluded == ("no_fault",) and played.rounds == ()
+    assert played.confirmed_fault is None and played.steps
+
+
+def test_over_many_units_the_engine_is_mostly_right_and_misses_show_in_verification():
+    family = KB.families["pwm_flyback"]
+    faults = [f.id for f in family.faults]
+    played = [engine_bench_session(family, RATINGS["pwm_flyback"], fault, seed)
+              for seed in range(2) for fault in faults]
+    right = sum(p.confirmed_fault == fault for p, fault in zip(played, faults * 2))
+    assert right >= 0.85 * len(played)
+    assert all(p.rounds[-1].passed for p in played)
+    for p in played:
+        if len(p.rounds) > 1:  # a second round only follows a failed verification
+            assert not p.rounds[0].passed
+    minutes = sorted(p.diagnosis_minutes + p.repair_minutes for p in played)
+    assert 10 <= minutes[len(minutes) // 2] <= 90
+
+
+def test_same_seed_same_session():
+    family = KB.families["primary_side"]
+    assert (engine_bench_session(family, RATINGS["primary_side"], "R1.open", 9)
+            == engine_bench_session(family, RATINGS["primary_side"], "R1.open", 9))

@@ -1,0 +1,144 @@
+"""The History screen on the test shop: filters, counts, sorting and opening a case."""
+
+from __future__ import annotations
+
+import pytest
+from PySide6.QtCore import Qt
+from sqlalchemy import text
+
+from fixbench.ui.review.case_table import HEADERS, ROW_ROLE, SORT_KEY
+from fixbench.ui.review.history import HistoryScreen
+
+from .helpers import settle
+
+
+@pytest.fixture
+def history(qtbot, demo_context):
+    screen = HistoryScreen(demo_context)
+    qtbot.addWidget(screen)
+    screen.resize(1366, 768)
+    screen.show()
+    settle(qtbot, lambda: screen.model.rows and not screen.controller.loading
+           and screen.filters.technician.count() > 1)
+    return screen
+
+
+def _raw_count(store, where: str, **params) -> int:
+    with store.engine.connect() as connection:
+        return connection.execute(text(f"SELECT count(*) FROM cases WHERE {where}"), params).scalar()
+
+
+def _all_rows(qtbot, screen):
+    while screen.model.canFetchMore():
+        screen.model.fetchMore()
+        settle(qtbot, lambda: not screen.controller.loading)
+    return [screen.model.index(r, 0).data(ROW_ROLE) for r in range(screen.model.rowCount())]
+
+
+def test_opens_with_every_case_counted(history, demo_store):
+    total = _raw_count(demo_store, "1 = 1")
+    assert history.model.total == total
+    assert f"{total:,} cases" in history.count.text()
+
+
+def test_filter_by_technician_counts_as_the_store_does(qtbot, history, demo_store):
+    combo = history.filters.technician
+    with demo_store.engine.connect() as connection:
+        busiest = connection.execute(text("SELECT technician_id FROM cases GROUP BY technician_id "
+                                          "ORDER BY count(*) DESC LIMIT 1")).scalar()
+    combo.setCurrentIndex(combo.findData(busiest))
+    person = combo.currentData()
+    assert person == busiest
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.technician_id == person)
+    expected = _raw_count(demo_store, "technician_id = :p", p=person)
+    assert 0 < expected < _raw_count(demo_store, "1 = 1")
+    assert history.model.total == expected
+    assert f"{expected:,} cases match" in history.count.text()
+    rows = _all_rows(qtbot, history)
+    assert len(rows) == expected
+    assert {row.technician for row in rows} == {combo.currentText()}
+
+
+def test_filter_by_fault_and_text(qtbot, history, demo_store):
+    combo = history.filters.fault
+    combo.setCurrentIndex(1)
+    fault = combo.currentData()
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.fault == fault)
+    assert history.model.total == _raw_count(demo_store, "confirmed_fault = :f", f=fault)
+    first = history.model.index(0, 0).data(ROW_ROLE).ticket[:3]
+    qtbot.keyClicks(history.filters.text, first)
+    settle(qtbot, lambda: history.controller.case_filter.text == first
+           and not history.controller.loading)
+    expected = _raw_count(demo_store, "confirmed_fault = :f AND ticket_ref LIKE :t", f=fault,
+                          t=first + "%")
+    assert history.model.total == expected > 0
+    assert all(first in row.ticket for row in _all_rows(qtbot, history))
+
+
+def _key(row, column):
+    return {"ticket": row.ticket, "opened": row.opened, "closed": row.closed,
+            "outcome": (row.outcome, row.status), "family": row.family,
+            "technician": row.technician, "device": (row.make, row.model),
+            "minutes": row.minutes, "fault": row.fault}[SORT_KEY[column]]
+
+
+def _comparable(value):
+    # SQLite sorts NULL before any value ascending; each part of a key compares the same way.
+    parts = value if isinstance(value, tuple) else (value,)
+    return tuple((part is not None, part if part is not None else 0) for part in parts)
+
+
+@pytest.mark.parametrize("column", range(len(HEADERS)))
+def test_sorts_by_each_column_in_the_database(qtbot, history, column):
+    for order in (Qt.SortOrder.AscendingOrder, Qt.SortOrder.DescendingOrder):
+        history.table.sortByColumn(column, order)
+        settle(qtbot, lambda: not history.controller.loading
+               and history.controller.sort_key == SORT_KEY[column]
+               and history.controller.descending == (order == Qt.SortOrder.DescendingOrder))
+        rows = _all_rows(qtbot, history)
+        descending = order == Qt.SortOrder.DescendingOrder
+        keys = [(_comparable(_key(r, column)), r.id) for r in rows]
+        assert keys == sorted(keys, reverse=descending)
+        assert len({r.id for r in rows}) == len(rows) == history.model.total
+
+
+def test_open_case_shows_its_readings_in_the_timeline(qtbot, history, demo_store, knowledge):
+    history.filters.outcome.setCurrentIndex(history.filters.outcome.findData("repaired"))
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.outcome == "repaired")
+    history.table.setFocus()
+    history.table.selectRow(0)
+    case = history.model.index(0, 0).data(ROW_ROLE)
+    story = history.open_case(0)
+    settle(qtbot, lambda: story.story is not None)
+    shown = story.timeline.toPlainText()
+    with demo_store.engine.connect() as connection:
+        readings = connection.execute(text("SELECT check_id, typed FROM readings WHERE case_id = :c "
+                                           "ORDER BY seq"), {"c": case.id}).all()
+    assert readings
+    family = knowledge.family(case.family)
+    for check_id, typed in readings:
+        assert family.check(check_id).title in shown
+        assert f"Read {typed};" in shown
+    assert "Verification" in shown and "Closed" in shown
+    assert case.ticket in story.heading.text()
+
+
+def test_rerun_says_whether_the_conclusion_changes(qtbot, history):
+    story = history.open_case(0)
+    settle(qtbot, lambda: story.story is not None)
+    qtbot.mouseClick(story.rerun_button, Qt.MouseButton.LeftButton)
+    settle(qtbot, lambda: story.rerun is not None)
+    assert "Today's engine names" in story.rerun_text.text()
+    verdict = "would change" if story.rerun.changed else "would stay the same"
+    assert verdict in story.rerun_text.text()
+
+
+def test_apply_filter_from_a_figure(qtbot, history, demo_store):
+    history.apply_filter({"outcome": "no_fault_found"})
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.outcome == "no_fault_found")
+    assert history.model.total == _raw_count(demo_store, "outcome = 'no_fault_found'")
+    assert history.filters.outcome.currentData() == "no_fault_found"
