@@ -209,7 +209,7 @@ def open_cases(store: Store, offset: int = 0, limit: int = 200) -> list[OpenCase
              .outerjoin(counts, counts.c.case_id == Case.id)
              .where(Case.status.in_(OPEN_STATUSES))
              .order_by(Case.opened_at.desc(), Case.id.desc()).offset(offset).limit(limit))
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         return [OpenCaseRow(*row) for row in connection.execute(query)]
 
 
@@ -234,7 +234,7 @@ def known_models(store: Store, newest_cases: int = 2000) -> list[KnownModel]:
              .join(Case, Case.device_id == Device.id)
              .order_by(Case.opened_at.desc(), Case.id.desc()).limit(newest_cases))
     seen: dict[tuple[str, str], KnownModel] = {}
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         for make, model, kind, family_id, ratings in connection.execute(query):
             seen.setdefault((make.lower(), model.lower()),
                             KnownModel(make, model, kind, family_id, dict(ratings or {})))

@@ -133,7 +133,7 @@ def _escaped(word: str) -> str:
 
 def filtered_count(store: Store, case_filter: CaseFilter) -> int:
     query = select(func.count()).select_from(Case).where(case_filter.where())
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         return connection.scalar(query)
 
 
@@ -159,7 +159,7 @@ def filtered_page(store: Store, case_filter: CaseFilter, sort: str = "opened",
              .join(Technician, Technician.id == Case.technician_id)
              .join(Device, Device.id == Case.device_id)
              .order_by(*order))
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         return [CaseRow(*row) for row in connection.execute(query)]
 
 
@@ -178,7 +178,7 @@ class FilterChoices:
 
 
 def filter_choices(store: Store) -> FilterChoices:
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         people = connection.execute(select(Technician.id, Technician.name)
                                     .order_by(Technician.name)).all()
         families = connection.scalars(select(Case.family_id).distinct()
@@ -223,7 +223,7 @@ def export_filtered_csv(store: Store, case_filter: CaseFilter, out: TextIO, *,
     writer = csv.writer(out)
     writer.writerow(CSV_COLUMNS)
     count = 0
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         for row in connection.execution_options(yield_per=1000).execute(query):
             *head, cents, n_readings = row
             writer.writerow([_cell(v) for v in head] + [f"{cents / 100:.2f}", n_readings])
@@ -233,7 +233,7 @@ def export_filtered_csv(store: Store, case_filter: CaseFilter, out: TextIO, *,
 
 def opened_span(store: Store) -> tuple[datetime | None, datetime | None]:
     """When the first and the newest case were opened."""
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         # Alone in its query, min() and max() are one step down the index each.
         return (connection.scalar(select(func.min(Case.opened_at))),
                 connection.scalar(select(func.max(Case.opened_at))))

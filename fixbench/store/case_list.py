@@ -45,7 +45,7 @@ class CaseRow:
 
 
 def case_count(store: Store) -> int:
-    with store.session() as session:
+    with store.reading() as session:
         return session.scalar(select(func.count()).select_from(Case))
 
 
@@ -65,5 +65,5 @@ def case_page(store: Store, sort: str = "opened", descending: bool = True, offse
              .join(Technician, Technician.id == Case.technician_id)
              .join(Device, Device.id == Case.device_id)
              .order_by(*order))
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         return [CaseRow(*row) for row in connection.execute(query)]

@@ -2,9 +2,11 @@
 
 Everything about how SQLite is driven lives here, set once per connection by event listeners:
 WAL journal, ``synchronous=FULL`` (a committed reading survives power loss, not only a crash),
-foreign keys on, a busy timeout, and ``BEGIN IMMEDIATE`` for every transaction so two benches
-writing the same file queue for the write lock instead of failing with "database is locked" on
-upgrade from a read lock. The recipe (``isolation_level=None`` on the DBAPI connection, BEGIN
+foreign keys on, a busy timeout, and ``BEGIN IMMEDIATE`` for every write transaction so two
+benches writing the same file queue for the write lock instead of failing with "database is
+locked" on upgrade from a read lock. Read-only work (the owner's figures, the case table) goes
+through :meth:`Store.reading`, which begins a plain deferred transaction: in WAL mode readers
+do not block each other or the writer, and do not queue for the write lock. The recipe (``isolation_level=None`` on the DBAPI connection, BEGIN
 emitted from the "begin" event) is SQLAlchemy's documented one for pysqlite ("Serializable
 isolation / Savepoints / Transactional DDL" in the SQLite dialect docs).
 """
@@ -25,6 +27,7 @@ from fixbench.store.errors import StoreFileError
 from fixbench.store.location import resolve_url, sqlite_path
 
 BUSY_TIMEOUT_MS = 30_000
+READ_ONLY_OPTION = "fixbench_read_only"
 SQLITE_PRAGMAS = (
     "PRAGMA journal_mode=WAL",
     "PRAGMA synchronous=FULL",
@@ -50,6 +53,17 @@ class Store:
         """A session whose work is committed when the block ends without an error."""
         with self.sessions.begin() as session:
             yield session
+
+    @contextmanager
+    def reading(self) -> Iterator[Session]:
+        """A session for queries only: it does not take the write lock. Never write through it."""
+        with Session(bind=self.engine.execution_options(**{READ_ONLY_OPTION: True}),
+                     expire_on_commit=False) as session, session.begin():
+            yield session
+
+    def read_connection(self):
+        """A Core connection for queries only (see :meth:`reading`)."""
+        return self.engine.execution_options(**{READ_ONLY_OPTION: True}).connect()
 
     def close(self) -> None:
         self.engine.dispose()
@@ -95,7 +109,7 @@ def _make_engine(url: str) -> Engine:
 
 
 def install_sqlite_listeners(engine: Engine) -> None:
-    """Set the pragmas on every new connection and make every transaction BEGIN IMMEDIATE."""
+    """Set the pragmas on every new connection; writes BEGIN IMMEDIATE, reads a plain BEGIN."""
 
     @event.listens_for(engine, "connect")
     def _on_connect(dbapi_connection: sqlite3.Connection, _record: object) -> None:
@@ -106,4 +120,5 @@ def install_sqlite_listeners(engine: Engine) -> None:
 
     @event.listens_for(engine, "begin")
     def _on_begin(connection) -> None:
-        connection.exec_driver_sql("BEGIN IMMEDIATE")
+        read_only = connection.get_execution_options().get(READ_ONLY_OPTION, False)
+        connection.exec_driver_sql("BEGIN" if read_only else "BEGIN IMMEDIATE")

@@ -33,7 +33,7 @@ def _canonical(value) -> str:
 def table_digests(store: Store) -> dict[str, str]:
     """Table name -> SHA-256 of its rows (hex), for every table of the schema."""
     digests = {}
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         for table in Base.metadata.sorted_tables:
             sha = hashlib.sha256()
             for row in connection.execute(select(table).order_by(*table.primary_key.columns)):

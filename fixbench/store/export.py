@@ -65,7 +65,7 @@ def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datet
     writer = csv.writer(out)
     writer.writerow(CSV_COLUMNS)
     count = 0
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         for row in connection.execution_options(yield_per=1000).execute(query):
             *head, cents, n_readings = row
             writer.writerow([_cell(v) for v in head] + [f"{cents / 100:.2f}", n_readings])

@@ -59,7 +59,7 @@ def _month(dialect: str, column) -> ColumnElement[str]:
 
 
 def _run(store: Store, title: str, query: Select) -> Figure:
-    with store.engine.connect() as connection:
+    with store.read_connection() as connection:
         result = connection.execute(query)
         return Figure(title, tuple(result.keys()),
                       tuple(tuple(_plain(v) for v in row) for row in result))

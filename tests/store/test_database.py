@@ -111,3 +111,26 @@ def test_process_killed_mid_case_loses_no_committed_reading(tmp_path):
     with store.session() as session:
         kept = set(session.scalars(select(Reading.check_id)))
     assert {f"r{i}" for i in reported} <= kept
+
+
+def test_reads_do_not_take_the_write_lock(tmp_path):
+    """A query while another connection holds the write lock answers at once (WAL readers)."""
+    import sqlite3
+
+    from sqlalchemy import text
+
+    from fixbench.store import open_store
+
+    path = tmp_path / "locks.sqlite"
+    store = open_store(path)
+    writer = sqlite3.connect(path, isolation_level=None)
+    writer.execute("BEGIN IMMEDIATE")
+    try:
+        with store.reading() as session:
+            assert session.execute(text("SELECT count(*) FROM cases")).scalar() == 0
+        with store.read_connection() as connection:
+            assert connection.execute(text("SELECT 1")).scalar() == 1
+    finally:
+        writer.execute("ROLLBACK")
+        writer.close()
+        store.close()

@@ -58,7 +58,7 @@ def write_job_report(store: Store, kb: KnowledgeBase, case_id: int, path: str | 
                      footer: str) -> JobReport:
     """One page for the customer: the device, what was found, replaced and measured after."""
     names = TradeNames(kb)
-    with store.session() as session:
+    with store.reading() as session:
         case = session.get(Case, case_id)
         if case is None:
             raise StoreInputError(f"there is no case {case_id}")

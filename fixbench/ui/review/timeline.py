@@ -97,7 +97,7 @@ def fault_model_of(kb: KnowledgeBase, case: Case) -> FaultModel | None:
 
 def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     names = TradeNames(kb)
-    with store.session() as session:
+    with store.reading() as session:
         case = session.get(Case, case_id)
         if case is None:
             raise StoreInputError(f"there is no case {case_id}")
