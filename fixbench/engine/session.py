@@ -144,6 +144,11 @@ class DiagnosisState:
         if check.id == planner.DISCHARGE_CHECK and state.powered_since_discharge:
             return self._proposal(i, 0.0, "the unit was powered: confirm the bulk capacitor is discharged first")
         bits = planner.information_about_root(self.model, self.posterior, i)
+        if any(r.check == check.id for r in self.readings):
+            return self._proposal(i, bits, "take it again: the leading fault rests on this one reading, "
+                                           "which may have been a misread or a poor probe contact")
+        if planner.finished(self.model, self.posterior):
+            return self._proposal(i, bits, "confirms the leading fault, which so far rests on one reading")
         return self._proposal(i, bits, f"tells {bits:.2f} bits about the fault in {check.minutes:g} min")
 
     def _proposal(self, i: int, bits: float, reason: str) -> Proposal:

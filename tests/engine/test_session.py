@@ -136,3 +136,23 @@ def test_shop_history_is_part_of_the_session(family, ratings):
     counted = start_diagnosis(family, ratings, prior_counts={"C2.dried": 200})
     assert counted.model is not plain.model
     assert start_diagnosis(family, ratings).model is plain.model  # the same unit shares one model
+
+
+
+def test_a_conclusion_resting_on_one_reading_asks_for_it_again_and_says_why():
+    from fixbench.engine import start_diagnosis
+    from fixbench.knowledge import load_knowledge
+    from fixbench.physics.ratings import parse_ratings
+
+    family = load_knowledge().family("pwm_flyback")
+    state = start_diagnosis(family, parse_ratings({"mains": "230 V", "output": "5 V", "current": "2 A"}))
+    for check, value in (("symptom_ticking", "yes"), ("output_diode_test", "300 mV"),
+                         ("vcc_cap_capacitance", "5.5 uF"), ("look_bulged", "no"),
+                         ("output_cap_capacitance", "680 uF")):
+        state = state.with_reading(check, value)
+    assert state.suspects[0].fault == "C2.dried" and state.suspects[0].probability > 0.95
+    # Only the one capacitance reading separates C2 from the other hiccup faults: confirm it.
+    assert state.next_check.check.id == "vcc_cap_capacitance"
+    assert state.next_check.reason.startswith("take it again")
+    confirmed = state.with_reading("vcc_cap_capacitance", "5.4 uF")
+    assert confirmed.next_check is None and confirmed.conclusion.faults == ("C2.dried",)

@@ -119,6 +119,8 @@ class IntakePanel(QWidget):
         inner.setLayout(columns)
         scroll = QScrollArea()
         scroll.setWidgetResizable(True)
+        # Wrap the family descriptions to the window rather than scroll sideways.
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         scroll.setWidget(inner)
 
         self.open_button = QPushButton("Open the case (Ctrl+Enter)")

@@ -91,15 +91,18 @@ class StepCard(QWidget):
 
         details = QGridLayout()
         details.setColumnStretch(1, 1)
+        self.row_labels: list[QLabel] = []
         for row, (name, widget) in enumerate((("Where", self.where), ("With", self.instrument),
                                               ("How", self.how))):
             label = QLabel(f"<b>{name}</b>")
             label.setAlignment(Qt.AlignmentFlag.AlignTop)
             details.addWidget(label, row, 0)
             details.addWidget(widget, row, 1)
+            self.row_labels.append(label)
         expect_box = QVBoxLayout()
         expect_box.setSpacing(0)
-        expect_box.addWidget(QLabel("A healthy unit shows"))
+        self.expect_caption = QLabel("A healthy unit shows")
+        expect_box.addWidget(self.expect_caption)
         expect_box.addWidget(self.expected)
         expect_box.addWidget(self.band)
         buttons = QHBoxLayout()
@@ -132,8 +135,14 @@ class StepCard(QWidget):
 
     # --- rendering ---------------------------------------------------------------------------------
 
+    def _label_rows(self, names: tuple[str, str, str], expecting: bool) -> None:
+        for label, name in zip(self.row_labels, names):
+            label.setText(f"<b>{name}</b>" if name else "")
+        self.expect_caption.setVisible(expecting)
+
     def show_step(self, state, proposal) -> None:
         check, family = proposal.check, state.family
+        self._label_rows(("Where", "With", "How"), True)
         powered = check.power in wording.POWERED
         self.power_label.setText(wording.POWER_WORDS[check.power])
         self.caution_label.setText("\n".join(f"\u26a0 {c}" for c in proposal.cautions))
@@ -160,6 +169,7 @@ class StepCard(QWidget):
     def show_done(self, state, conclusion) -> None:
         self.power_strip.setVisible(False)
         self.title.setText("The checks are done: the conclusion is ready")
+        self._label_rows(("Found", "Next", ""), False)
         top = state.suspects[0] if state.suspects else None
         self.where.setText(f"Most likely: {top.title} ({top.part or 'no part'}, {top.probability:.0%})"
                            if top else "-")

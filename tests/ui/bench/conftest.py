@@ -54,7 +54,10 @@ def type_into(qtbot, line_edit, text: str, enter: bool = True) -> None:
 
 def shoot(widget, folder, name: str):
     """Render a screen to PNG under the test's folder; returns the path."""
+    from PySide6.QtWidgets import QApplication
+
     path = folder / f"{name}.png"
+    QApplication.processEvents()  # children added to a visible layout are shown on the next turn
     assert widget.grab().save(str(path))
     return path
 
