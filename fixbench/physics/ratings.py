@@ -113,3 +113,20 @@ def parse_ratings(ratings: dict[str, str]) -> Ratings:
         mains_hz=hz, output_v=output_v, output_a=output_a,
         bulk_f=_value(ratings, "bulk", "F"), switching_hz=_value(ratings, "switching", "Hz"),
     )
+
+
+def describe_label(ratings: dict[str, str]) -> str:
+    """The label ratings as a person writes them: "input 100-240 V 50 Hz, output 12 V 2 A".
+    The bench mains is where the unit was tested, not part of its label, and is left out."""
+    mains = str(ratings.get("mains", "")).strip()
+    if mains.lower() in UNIVERSAL_WORDS:
+        mains = "100-240 V"
+    parts = []
+    if mains:
+        parts.append(" ".join(x for x in ("input", mains, str(ratings.get("frequency", "")).strip()) if x))
+    output = " ".join(str(ratings.get(k, "")).strip() for k in ("output", "current")).strip()
+    if output:
+        parts.append(f"output {output}")
+    if ratings.get("bulk"):
+        parts.append(f"bulk capacitor {ratings['bulk']}")
+    return ", ".join(parts)

@@ -90,3 +90,12 @@ def test_missing_rating_is_named():
 def test_more_than_250_watts_is_refused():
     with pytest.raises(ReadingError, match="250 W"):
         parse_ratings(dict(CHARGER, output="48 V", current="10 A"))
+
+
+def test_label_reads_as_a_person_writes_it_without_the_bench_mains():
+    from fixbench.physics.ratings import describe_label
+
+    text = describe_label({"mains": "universal", "frequency": "50 Hz", "output": "12 V", "current": "2 A",
+                           "bench_mains": "230 V"})
+    assert text == "input 100-240 V 50 Hz, output 12 V 2 A"
+    assert describe_label({"mains": "230 V", "output": "5 V", "current": "1 A"}) == "input 230 V, output 5 V 1 A"

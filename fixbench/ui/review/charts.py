@@ -98,8 +98,8 @@ class MonthLines(_Chart):
                 self.plot([p[0] for p in points], [p[1] for p in points], name=name,
                           pen=pg.mkPen(colour, width=2), symbol="o", symbolSize=5,
                           symbolBrush=colour, symbolPen=None)
-        step = max(1, len(months) // 8)
-        self.getAxis("bottom").setTicks([[(x, months[x]) for x in xs[::step]]])
+        step = max(1, -(-len(months) // 7))  # at most seven month labels: they must not overlap
+        self.getAxis("bottom").setTicks([[(x, _month_label(months[x])) for x in xs[::step]]])
         self.setXRange(-0.5, max(len(months), 1) - 0.5, padding=0.02)
         if self.percent:
             self.setYRange(0, 100)
@@ -119,3 +119,15 @@ class MinutesSpread(_Chart):
         if starts:
             self.addItem(pg.BarGraphItem(x0=list(starts), height=list(counts), width=width * 0.92,
                                          brush=BAR_COLOUR, pen=pg.mkPen(None)))
+
+
+MONTH_NAMES = ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec")
+
+
+def _month_label(month: str) -> str:
+    """'2024-07' -> 'Jul 24': short enough for a dozen months on a half-width chart."""
+    try:
+        year, number = month.split("-")[:2]
+        return f"{MONTH_NAMES[int(number) - 1]} {year[-2:]}"
+    except (ValueError, IndexError):
+        return month

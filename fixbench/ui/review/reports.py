@@ -54,6 +54,9 @@ class JobReport:
     path: Path
 
 
+from fixbench.physics.ratings import describe_label  # noqa: E402  (kept beside its one use)
+
+
 def write_job_report(store: Store, kb: KnowledgeBase, case_id: int, path: str | Path,
                      footer: str) -> JobReport:
     """One page for the customer: the device, what was found, replaced and measured after."""
@@ -77,7 +80,7 @@ def write_job_report(store: Store, kb: KnowledgeBase, case_id: int, path: str | 
         report.html("<h2>Your device</h2>" + _table(
             ("Make and model", "Kind", "Serial", "Label"),
             [(f"{device.make} {device.model}", device.kind, device.serial or "-",
-              ", ".join(f"{k} {v}" for k, v in case.ratings.items()))]))
+              describe_label(case.ratings))]))
         found = (f"{names.fault(case.confirmed_fault, fam)} "
                  f"(part {case.confirmed_part}: {names.part(case.confirmed_part, fam)})"
                  if case.confirmed_fault else "No single faulty part was confirmed.")

@@ -15,6 +15,7 @@ from datetime import datetime
 from sqlalchemy import select
 
 from fixbench.engine import start_diagnosis
+from fixbench.physics.ratings import describe_label
 from fixbench.engine.fault_model import FaultModel, cached_fault_model
 from fixbench.engine.readings import read
 from fixbench.knowledge import KnowledgeBase
@@ -106,7 +107,7 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
         steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician.name}",
                       (f"{case.device.make} {case.device.model} ({case.device.kind}), "
                        f"{family_name(fam)}",
-                       "Label: " + ", ".join(f"{k} {v}" for k, v in case.ratings.items())))]
+                       "Label: " + describe_label(case.ratings)))]
         previous: list[str] = []
         withdrawn = dict(session.execute(
             select(WithdrawnReading.reading_id, WithdrawnReading.withdrawn_at)
