@@ -11,6 +11,9 @@ FIGURE_TITLES = {
     "vcc_start": ("vcc", "Controller start threshold (Vcc rising)"),
     "vcc_stop": ("vcc", "Controller stop threshold (Vcc falling)"),
     "bulk_minimum_at_load": ("bulk_plus/primary_ground", "Bulk valley at rated load"),
+    "aux_flyback": ("d2_pins", "Auxiliary winding, flyback plateau (scope)"),
+    "aux_forward": ("d2_pins", "Auxiliary winding while the switch conducts (scope)"),
+    "aux_rectified": ("d2_pins", "Auxiliary winding, rectified (feeds Vcc)"),
     "bulk_capacitance": ("bulk_plus/primary_ground", "Bulk capacitance assumed"),
 }
 

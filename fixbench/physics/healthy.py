@@ -14,6 +14,9 @@ from fixbench.physics.expectation import Expectation
 from fixbench.physics.ratings import Ratings
 from fixbench.physics.sizing import bulk_capacitance, input_power
 
+AUX_DIODE_DROP = 0.7  # fast silicon diode at the aux winding's few milliamps [practice]
+SCHOTTKY_DROP = 0.5  # output Schottky at rated current [src: onsemi 1N5817/D, SS34 datasheets]
+SILICON_DROP = 0.8  # output fast silicon diode at rated current [src: 1N4007-class datasheets, approx.]
 RESIDUAL_SAFE_V = 5.0  # volts left on the bulk capacitor that count as discharged [practice]
 BULK_RIPPLE_MARGIN = 1.5  # healthy ripple limit over the computed figure (tolerance, ageing) [practice]
 VCC_RUN_HEADROOM = 6.0  # Vcc of a running controller stays within this above its design point [practice]
@@ -64,6 +67,18 @@ def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
         numeric["vcc_voltage"] = Expectation(target, stop + 0.5, target + VCC_RUN_HEADROOM, "V")
         figures["vcc_start"] = Expectation(start, None, None, "V")
         figures["vcc_stop"] = Expectation(stop, None, None, "V")
+        # The auxiliary winding: Na/Ns chosen to hold Vcc at its design point with the output in
+        # regulation; on a scope at the aux diode's anode it swings to (Vo + VD) Na/Ns during the
+        # flyback interval and to -Vbulk Na/Np while the switch conducts [textbook flyback relations].
+        v_diode = AUX_DIODE_DROP
+        out_diode = SCHOTTKY_DROP if d.get("output_diode") == "schottky" else SILICON_DROP
+        na_ns = flyback.aux_turns_for(target, ratings.output_v, out_diode, v_diode)
+        ns_np = 1.0 / flyback.primary_to_secondary_ratio(vor, ratings.output_v, out_diode)
+        flyback_v = (ratings.output_v + out_diode) * na_ns
+        figures["aux_flyback"] = Expectation(flyback_v, None, None, "V")
+        figures["aux_forward"] = Expectation(-peak * na_ns * ns_np, None, None, "V")
+        figures["aux_rectified"] = Expectation(
+            flyback.auxiliary_voltage(ratings.output_v, out_diode, na_ns, v_diode), None, None, "V")
     else:
         # Base of a self-oscillating switch: the meter averages the drive to a few tenths of a volt,
         # negative-going drive pulls it below zero [practice].

@@ -60,3 +60,21 @@ def test_auxiliary_voltage_tracks_the_output():
     sagging = auxiliary_voltage(2.5, 0.7, 2.5, 0.7)
     assert normal == pytest.approx(13.55)  # [src: textbook flyback relations]
     assert sagging == pytest.approx(7.3)  # [src: textbook flyback relations]
+
+
+def test_auxiliary_winding_figures_follow_the_turns_ratios():
+    from fixbench.knowledge import load_knowledge
+    from fixbench.physics.healthy import healthy_unit
+    from fixbench.physics.ratings import parse_ratings
+
+    family = load_knowledge().family("pwm_flyback")
+    unit = healthy_unit(family.design, parse_ratings({"mains": "230 V", "output": "5 V", "current": "2 A"}))
+    target = float(family.design["vcc_target_v"])
+    # Vaux = (Vo + VD) Na/Ns - VDa with Na/Ns chosen for the Vcc design point [textbook flyback relations]
+    assert unit.figures["aux_rectified"].nominal == pytest.approx(target)
+    assert unit.figures["aux_flyback"].nominal == pytest.approx(target + 0.7)
+    # While the switch conducts the winding reflects -Vbulk Na/Np; Np/Ns = VOR/(Vo+VD), VOR 135 V
+    # for 230 V designs [src: Power Integrations AN-19]
+    na_ns = (target + 0.7) / (5.0 + 0.5)
+    np_ns = 135.0 / (5.0 + 0.5)
+    assert unit.figures["aux_forward"].nominal == pytest.approx(-unit.numeric["bulk_voltage"].nominal * na_ns / np_ns)

@@ -4,12 +4,14 @@ Plain Python (no widgets): :func:`load_case_story` reads the record and the know
 returns frozen entries the case window draws; :func:`rerun_case` feeds the readings as typed to
 the engine of this build and says whether its conclusion differs from the one kept with the case.
 Expected bands are the healthy unit's, from the fault model of the case's family and ratings.
+An amended case is told as it was closed (the old value of each field's first amendment), then
+each amendment with who, when and why; the card shows the values as they stand now.
 """
 
 from __future__ import annotations
 
 import json
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from datetime import datetime
 
 from sqlalchemy import select
@@ -21,6 +23,7 @@ from fixbench.engine.readings import read
 from fixbench.knowledge import KnowledgeBase
 from fixbench.physics.ratings import parse_ratings
 from fixbench.quantities import ReadingError
+from fixbench.store.amendments import AMENDABLE
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
 from fixbench.store.models import (Amendment, Case, RepairAction, SkippedCheck, Verification,
@@ -53,6 +56,10 @@ class CaseStory:
     readings: tuple[tuple[str, str], ...]  # (check id, typed) in the order taken
     kept_first_suspect: str | None
     confirmed_fault: str | None
+    status: str = "closed"
+    # The amendable fields as they stand now (store identifiers, not words), for the amend dialog.
+    current: dict = field(default_factory=dict)
+    amended: frozenset[str] = frozenset()  # fields changed by an amendment since closing
 
 
 @dataclass(frozen=True)
@@ -94,6 +101,34 @@ def fault_model_of(kb: KnowledgeBase, case: Case) -> FaultModel | None:
         return cached_fault_model(kb.family(case.family_id), parse_ratings(dict(case.ratings)))
     except (KeyError, ReadingError):
         return None  # shown as "no band known"; the record itself is still told in full
+
+
+def shown_value(names: TradeNames, family_id: str, field_name: str, value) -> str:
+    """A stored field value in the owner's words: an outcome's name, a fault's or part's title."""
+    if value is None or value == "":
+        return "none"
+    if field_name == "outcome":
+        return outcome_name(value)
+    if field_name == "confirmed_fault":
+        return names.fault_label(value, family_id)
+    if field_name == "confirmed_part":
+        title = names.part(value, family_id)
+        return value if title == value else f"{value}: {title}"
+    if field_name == "confirmed_stage":
+        family = names.knowledge.families.get(family_id)
+        known = family is not None and value in {s.id for s in family.stages}
+        return family.stage(value).title if known else str(value)
+    if field_name == "bench_minutes":
+        return f"{value} min"
+    return str(value)
+
+
+def _amendment_step(names: TradeNames, family_id: str, change: Amendment) -> Step:
+    what = change.field.replace("_", " ")
+    old = shown_value(names, family_id, change.field, json.loads(change.old_value))
+    new = shown_value(names, family_id, change.field, json.loads(change.new_value))
+    return Step(change.amended_at, "amendment", f"{what.capitalize()} amended by {change.amended_by}",
+                (f"Was: {old}", f"Now: {new}", f"Why: {change.reason}"))
 
 
 def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
@@ -147,27 +182,48 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                               f"Verified {names.check(check.check_id, fam)}: "
                               f"{'passed' if check.passed else 'FAILED'}",
                               (f"Read {check.typed}; a healthy unit: {expected}",), in_band))
+        changes = list(session.scalars(select(Amendment).where(Amendment.case_id == case_id)
+                                       .order_by(Amendment.id)))
+        current = {name: getattr(case, name) for name in AMENDABLE}
+        as_closed = dict(current)
+        for change in reversed(changes):  # the oldest amendment's old value is the original
+            as_closed[change.field] = json.loads(change.old_value)
+        amended = frozenset(change.field for change in changes)
         if case.closed_at is not None:
-            steps.append(Step(case.closed_at, "closed", f"Closed: {outcome_name(case.outcome)}",
-                              (f"Bench time {case.bench_minutes} min",)))
-        for change in session.scalars(select(Amendment).where(Amendment.case_id == case_id)):
-            steps.append(Step(change.amended_at, "amendment",
-                              f"Amended {change.field.replace('_', ' ')} by {change.amended_by}",
-                              (f"{json.loads(change.old_value)} -> {json.loads(change.new_value)}",
-                               f"Why: {change.reason}")))
-        facts = (("Ticket", case.ticket_ref), ("Customer", case.customer_ref or ""),
+            closed_lines = [f"Bench time {as_closed['bench_minutes']} min"]
+            if as_closed["confirmed_fault"]:
+                closed_lines.append("Confirmed fault: "
+                                    + names.fault_label(as_closed["confirmed_fault"], fam))
+            if amended:
+                closed_lines.append("As closed; amended since (below): "
+                                    + ", ".join(sorted(f.replace("_", " ") for f in amended)))
+            steps.append(Step(case.closed_at, "closed",
+                              f"Closed: {outcome_name(as_closed['outcome'])}", tuple(closed_lines)))
+        steps.extend(_amendment_step(names, fam, change) for change in changes)
+
+        def card(name: str, value: str) -> str:
+            return f"{value} (amended)" if value and name in amended else value
+
+        facts = (("Ticket", case.ticket_ref),
+                 ("Customer", card("customer_ref", case.customer_ref or "")),
                  ("Technician", case.technician.name), ("Family", family_name(fam)),
                  ("Serial", case.device.serial or ""),
-                 ("Outcome", outcome_name(case.outcome, case.status)),
-                 ("Confirmed fault", names.fault_label(case.confirmed_fault, fam)),
-                 ("Bench minutes", "" if case.bench_minutes is None else str(case.bench_minutes)),
-                 ("Notes", case.notes))
+                 ("Outcome", card("outcome", outcome_name(case.outcome, case.status))),
+                 ("Confirmed fault", card("confirmed_fault",
+                                          names.fault_label(case.confirmed_fault, fam))),
+                 ("Confirmed part", card("confirmed_part", "" if not case.confirmed_part else
+                                         shown_value(names, fam, "confirmed_part",
+                                                     case.confirmed_part))),
+                 ("Bench minutes", card("bench_minutes", "" if case.bench_minutes is None
+                                        else str(case.bench_minutes))),
+                 ("Notes", card("notes", case.notes)))
         return CaseStory(case_id, case.ticket_ref,
                          f"{case.device.make} {case.device.model} {case.device.kind}", facts,
                          tuple(sorted(steps, key=lambda s: s.at)), fam, dict(case.ratings),
                          tuple((r.check_id, r.typed) for r in case.readings
                                if r.id not in withdrawn),
-                         case.top_suspect_fault, case.confirmed_fault)
+                         case.top_suspect_fault, case.confirmed_fault, case.status, current,
+                         amended)
 
 
 def rerun_case(kb: KnowledgeBase, story: CaseStory) -> Rerun:
