@@ -114,8 +114,10 @@ def _bulk(w: _Work) -> None:
     if w.mode("bulk_capacitor") == "dried":
         capacitance *= DRIED_CAPACITANCE
     hz = w.ratings.mains_hz / (2.0 if w.flags["half_wave"] else 1.0)
-    v_min = bulk_rail.bulk_minimum(peak, input_power(w.ratings), hz, capacitance)
-    w.values.update(bulk_voltage=peak, bulk_ripple=peak - v_min)
+    source = w.family.design.get("source_ohm")
+    rail = bulk_rail.rail_at_load(w.ratings.bench_mains, hz, capacitance, input_power(w.ratings),
+                                  float(source) if source is not None else None)
+    w.values.update(bulk_voltage=peak, bulk_ripple=rail.ripple)
     w.flags["bulk_sags"] = w.values["bulk_ripple"] > w.healthy.numeric["bulk_ripple"].high
 
 

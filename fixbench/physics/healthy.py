@@ -38,8 +38,9 @@ def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
     peak_high = bulk_rail.rectified_peak(ratings.bench_high)
     capacitance = bulk_capacitance(ratings, d)
     p_in = input_power(ratings)
-    v_min = bulk_rail.bulk_minimum(peak, p_in, ratings.mains_hz, capacitance)
-    ripple = peak - v_min
+    source_ohm = float(d["source_ohm"]) if "source_ohm" in d else None
+    rail = bulk_rail.rail_at_load(ratings.bench_mains, ratings.mains_hz, capacitance, p_in, source_ohm)
+    v_min, ripple = rail.v_min, rail.ripple
     out_low, out_high = outputs.output_window(ratings.output_v)
     f_sw = float(d["switching_hz"]) if ratings.switching_hz is None else ratings.switching_hz
     f_tol = float(d.get("switching_tolerance", 0.10))
