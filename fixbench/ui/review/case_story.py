@@ -1,7 +1,10 @@
-"""The window for one case: its card, its timeline, and a re-run through today's engine.
+"""The window for one case: its card, its timeline, a re-run through today's engine, and the
+owner's amendments and deletion.
 
 Renders a :class:`CaseStory` (built off the GUI thread by :mod:`timeline`) as a timeline the
 owner reads top to bottom; readings outside the healthy band are marked in words as well as colour.
+An amendment reloads the story; a deletion closes the window. Both are announced by signal so the
+History list can count again.
 """
 
 from __future__ import annotations
@@ -10,11 +13,14 @@ from html import escape
 
 from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QKeySequence
-from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QLabel, QPushButton,
+from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QHBoxLayout, QLabel, QPushButton,
                                QTextBrowser, QVBoxLayout, QWidget)
 
+from fixbench.store.owner import has_owner_passphrase
 from fixbench.ui.context import AppContext
+from fixbench.ui.review.amend_dialog import AmendDialog, DeleteCaseDialog
 from fixbench.ui.review.busy import BusyStrip
+from fixbench.ui.review.names import TradeNames
 from fixbench.ui.review.timeline import CaseStory, Rerun, load_case_story, rerun_case
 from fixbench.ui.workers import run_in_background
 
@@ -49,14 +55,22 @@ def facts_html(story: CaseStory, per_row: int = 3) -> str:
     return "<table>" + "".join(f"<tr>{row}</tr>" for row in rows) + "</table>"
 
 
+NO_OWNER = "No owner's passphrase is set for this shop, so the record cannot be changed here."
+
+
 class CaseStoryWindow(QDialog):
     report_requested = Signal(int)  # case id: print the customer's job report
+    case_amended = Signal(int)  # case id
+    case_deleted = Signal(int)  # case id; the window closes
 
     def __init__(self, context: AppContext, case_id: int, parent: QWidget | None = None) -> None:
         super().__init__(parent)
         self.context, self.case_id = context, case_id
         self.story: CaseStory | None = None
         self.rerun: Rerun | None = None
+        self.owner_set = False
+        self.amend_dialog: AmendDialog | None = None
+        self.delete_dialog: DeleteCaseDialog | None = None
         self.setWindowTitle("Case")
         self.resize(980, 680)
         self.heading = QLabel("Reading the case...")
@@ -69,10 +83,21 @@ class CaseStoryWindow(QDialog):
         self.busy = BusyStrip()
         self.rerun_button = QPushButton("&Re-run with today's engine")
         self.rerun_button.setShortcut(QKeySequence("Ctrl+R"))
-        self.report_button = QPushButton("Customer job &report (PDF)...")
+        self.report_button = QPushButton("Customer job re&port (PDF)...")
+        self.amend_button = QPushButton("&Amend...")
+        self.delete_button = QPushButton("&Delete case...")
         buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         buttons.addButton(self.rerun_button, QDialogButtonBox.ButtonRole.ActionRole)
         buttons.addButton(self.report_button, QDialogButtonBox.ButtonRole.ActionRole)
+        # The owner's changes stand apart on the left, away from Close, and Enter never presses
+        # them by accident.
+        for button in (self.amend_button, self.delete_button):
+            button.setAutoDefault(False)
+        bottom = QHBoxLayout()
+        bottom.addWidget(self.amend_button)
+        bottom.addWidget(self.delete_button)
+        bottom.addStretch(1)
+        bottom.addWidget(buttons)
         buttons.rejected.connect(self.reject)
         layout = QVBoxLayout(self)
         layout.addWidget(self.heading)
@@ -81,14 +106,27 @@ class CaseStoryWindow(QDialog):
         layout.addWidget(self.timeline, 1)
         layout.addWidget(self.rerun_text)
         layout.addWidget(self.busy)
-        layout.addWidget(buttons)
-        self.rerun_button.setEnabled(False)
+        layout.addLayout(bottom)
+        for button in (self.rerun_button, self.amend_button, self.delete_button):
+            button.setEnabled(False)
+        self.amend_button.setToolTip("Correct a field of this closed case (owner only)")
+        self.delete_button.setToolTip("Delete this case and all kept under it (owner only)")
         self.rerun_button.clicked.connect(self.start_rerun)
         self.report_button.clicked.connect(lambda: self.report_requested.emit(self.case_id))
+        self.amend_button.clicked.connect(self.open_amend)
+        self.delete_button.clicked.connect(self.open_delete)
+        self.load()
+
+    def load(self) -> None:
+        """Read (or read again, after an amendment) the case off the GUI thread."""
         self.busy.set_busy(True)
-        store, kb = context.store, context.knowledge
-        run_in_background(lambda: load_case_story(store, kb, case_id), self.show_story,
-                          self._failed)
+        store, kb, case_id = self.context.store, self.context.knowledge, self.case_id
+        run_in_background(lambda: (load_case_story(store, kb, case_id),
+                                   has_owner_passphrase(store)), self._loaded, self._failed)
+
+    def _loaded(self, loaded: tuple[CaseStory, bool]) -> None:
+        story, self.owner_set = loaded
+        self.show_story(story)
 
     def show_story(self, story: CaseStory) -> None:
         self.busy.set_busy(False)
@@ -98,7 +136,46 @@ class CaseStoryWindow(QDialog):
         self.facts.setText(facts_html(story))
         self.timeline.setHtml(timeline_html(story))
         self.rerun_button.setEnabled(bool(story.readings))
+        closed = story.status == "closed"
+        self.amend_button.setEnabled(self.owner_set and closed)
+        self.delete_button.setEnabled(self.owner_set)
+        if not self.owner_set:
+            for button in (self.amend_button, self.delete_button):
+                button.setToolTip(NO_OWNER)
+        elif not closed:
+            self.amend_button.setToolTip("This case is still open; it is changed at the bench, "
+                                         "not by amendment")
         self.timeline.setFocus()
+
+    def open_amend(self) -> None:
+        if self.story is None or self.amend_dialog is not None:
+            return
+        dialog = AmendDialog(self.context.store, TradeNames(self.context.knowledge), self.story,
+                             self)
+        dialog.amended.connect(self._amended)
+        dialog.finished.connect(lambda _result: setattr(self, "amend_dialog", None))
+        self.amend_dialog = dialog
+        dialog.open()
+
+    def _amended(self, case_id: int) -> None:
+        self.busy.tell("Amendment kept; the timeline shows it below the closing.")
+        self.rerun = None
+        self.rerun_text.setText("")  # it compared against the values before the amendment
+        self.load()
+        self.case_amended.emit(case_id)
+
+    def open_delete(self) -> None:
+        if self.story is None or self.delete_dialog is not None:
+            return
+        dialog = DeleteCaseDialog(self.context.store, self.case_id, self.story.ticket, self)
+        dialog.deleted.connect(self._deleted)
+        dialog.finished.connect(lambda _result: setattr(self, "delete_dialog", None))
+        self.delete_dialog = dialog
+        dialog.open()
+
+    def _deleted(self, case_id: int) -> None:
+        self.case_deleted.emit(case_id)
+        self.accept()
 
     def start_rerun(self) -> None:
         if self.story is None:

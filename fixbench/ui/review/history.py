@@ -1,7 +1,8 @@
 """The History screen: every case the shop has kept, filtered and sorted by the database.
 
 Widgets render and forward: the filter panel gives a CaseFilter, the controller runs the count and
-the pages off the GUI thread, the table shows them. Enter (or a double click) opens a case's story.
+the pages off the GUI thread, the table shows them. Enter (or a double click) opens a case's story;
+when the owner amends or deletes a case there, the list and its count are read again.
 """
 
 from __future__ import annotations
@@ -123,9 +124,15 @@ class HistoryScreen(QWidget):
         story = CaseStoryWindow(self.context, case.id, self)
         story.report_requested.connect(lambda case_id: self.actions.job_report(case_id, case.ticket))
         story.finished.connect(lambda _result: self.stories.remove(story))
+        story.case_amended.connect(lambda _case_id: self.controller.reload())
+        story.case_deleted.connect(lambda _case_id: self._case_deleted(case.ticket))
         self.stories.append(story)
         story.show()
         return story
+
+    def _case_deleted(self, ticket: str) -> None:
+        self.busy.tell(f"Case {ticket} deleted.")
+        self.controller.reload()
 
     def _report_selected(self) -> None:
         row = self._selected_row()

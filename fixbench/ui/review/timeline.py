@@ -123,12 +123,37 @@ def shown_value(names: TradeNames, family_id: str, field_name: str, value) -> st
     return str(value)
 
 
-def _amendment_step(names: TradeNames, family_id: str, change: Amendment) -> Step:
-    what = change.field.replace("_", " ")
-    old = shown_value(names, family_id, change.field, json.loads(change.old_value))
-    new = shown_value(names, family_id, change.field, json.loads(change.new_value))
-    return Step(change.amended_at, "amendment", f"{what.capitalize()} amended by {change.amended_by}",
-                (f"Was: {old}", f"Now: {new}", f"Why: {change.reason}"))
+def _amendment_steps(names: TradeNames, family_id: str, changes: list[Amendment]) -> list[Step]:
+    """One step per amendment made: rows written together (a fault with its part and stage) share
+    who, why and the moment, and are told as one."""
+    groups: list[list[Amendment]] = []
+    for change in changes:
+        last = groups[-1][-1] if groups else None
+        if (last is not None
+                and (last.amended_by, last.reason) == (change.amended_by, change.reason)
+                and abs((change.amended_at - last.amended_at).total_seconds()) < 2):
+            groups[-1].append(change)
+        else:
+            groups.append([change])
+
+    def shown(change: Amendment, stored: str) -> str:
+        return shown_value(names, family_id, change.field, json.loads(stored))
+
+    steps = []
+    for group in groups:
+        fields = [change.field.replace("_", " ") for change in group]
+        first = group[0]
+        if len(group) == 1:
+            lines = [f"Was: {shown(first, first.old_value)}",
+                     f"Now: {shown(first, first.new_value)}"]
+        else:
+            lines = [f"{field_words.capitalize()} was {shown(c, c.old_value)}; "
+                     f"now {shown(c, c.new_value)}" for field_words, c in zip(fields, group)]
+        what = fields[0] if len(fields) == 1 else ", ".join(fields[:-1]) + " and " + fields[-1]
+        steps.append(Step(first.amended_at, "amendment",
+                          f"{what.capitalize()} amended by {first.amended_by}",
+                          tuple(lines) + (f"Why: {first.reason}",)))
+    return steps
 
 
 def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
@@ -198,8 +223,8 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                 closed_lines.append("As closed; amended since (below): "
                                     + ", ".join(sorted(f.replace("_", " ") for f in amended)))
             steps.append(Step(case.closed_at, "closed",
-                              f"Closed: {outcome_name(as_closed['outcome'])}", tuple(closed_lines)))
-        steps.extend(_amendment_step(names, fam, change) for change in changes)
+                              f"Outcome: {outcome_name(as_closed['outcome'])}", tuple(closed_lines)))
+        steps.extend(_amendment_steps(names, fam, changes))
 
         def card(name: str, value: str) -> str:
             return f"{value} (amended)" if value and name in amended else value
