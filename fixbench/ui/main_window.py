@@ -13,7 +13,7 @@ from collections.abc import Callable
 
 from PySide6.QtCore import Qt, QTimer
 from PySide6.QtGui import QKeySequence, QShortcut
-from PySide6.QtWidgets import QApplication, QLabel, QMainWindow, QTabWidget, QWidget
+from PySide6.QtWidgets import QApplication, QLabel, QMainWindow, QPushButton, QTabWidget, QWidget
 
 from fixbench.ui.context import AppContext
 from fixbench.ui.screens import SCREENS
@@ -50,6 +50,7 @@ class MainWindow(QMainWindow):
         self.setCentralWidget(self.opening)
         for i in range(len(SCREENS)):
             QShortcut(QKeySequence(f"Ctrl+{i + 1}"), self, activated=lambda i=i: self.tabs.setCurrentIndex(i))
+        QShortcut(QKeySequence("Ctrl+,"), self, activated=self.open_shop_settings)
         self.resize(*START_SIZE)
         if context is not None:
             self.attach(context)
@@ -65,6 +66,11 @@ class MainWindow(QMainWindow):
             self.screens[title] = screen
             self.tabs.addTab(screen, title)
             self.tabs.setTabToolTip(i, tip)
+        settings = QPushButton("Shop settings\u2026")
+        settings.setToolTip("Report footer and the owner's passphrase (Ctrl+,)")
+        settings.clicked.connect(self.open_shop_settings)
+        self.tabs.setCornerWidget(settings, Qt.Corner.TopRightCorner)
+        self.settings_button = settings
         bench = self.screens.get("Bench")
         if bench is not None and hasattr(bench, "demo_wanted"):
             bench.demo_wanted.connect(self.open_demo_shop)
@@ -77,6 +83,13 @@ class MainWindow(QMainWindow):
         self.opening.setText(text)
         self.opening.setWordWrap(True)
         self.opening.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+
+    def open_shop_settings(self) -> None:
+        if self.context is None:
+            return
+        from fixbench.ui.shop_settings import ShopSettingsDialog
+
+        ShopSettingsDialog(self.context, self).exec()
 
     def open_demo_shop(self) -> None:
         from fixbench.store import StoreError, open_store

@@ -1,0 +1,84 @@
+"""Shop settings: the footer printed on customer job reports, and the owner's passphrase that
+guards deleting and amending cases and exporting everything.
+
+The passphrase is set here the first time (the owner does this when the shop starts using
+fixbench); changing it afterwards needs the current one. Only a salted scrypt hash is kept.
+"""
+
+from __future__ import annotations
+
+from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QFormLayout, QGroupBox, QLabel, QLineEdit,
+                               QPlainTextEdit, QVBoxLayout)
+
+from fixbench.store import StoreError
+from fixbench.store.bench_log import get_setting, set_setting
+from fixbench.store.owner import has_owner_passphrase, set_owner_passphrase
+from fixbench.ui.context import AppContext
+
+FOOTER_KEY = "report_footer"
+
+
+class ShopSettingsDialog(QDialog):
+    def __init__(self, context: AppContext, parent=None) -> None:
+        super().__init__(parent)
+        self.context = context
+        self.setWindowTitle("Shop settings")
+        store = context.store
+        self.footer = QPlainTextEdit(get_setting(store, FOOTER_KEY, "") or "")
+        self.footer.setPlaceholderText("shop name, address, phone, warranty terms: printed at the foot of "
+                                       "every customer job report")
+        self.footer.setTabChangesFocus(True)
+        self.footer.setFixedHeight(70)
+        self.has_passphrase = has_owner_passphrase(store)
+        self.current = QLineEdit()
+        self.new = QLineEdit()
+        self.repeat = QLineEdit()
+        for field in (self.current, self.new, self.repeat):
+            field.setEchoMode(QLineEdit.EchoMode.Password)
+        owner = QGroupBox("Owner's passphrase" + (" (set: fill in to change it)" if self.has_passphrase
+                                                  else " (not set yet)"))
+        form = QFormLayout(owner)
+        if self.has_passphrase:
+            form.addRow("Current passphrase", self.current)
+        else:
+            self.current.setVisible(False)
+        form.addRow("New passphrase", self.new)
+        form.addRow("New passphrase again", self.repeat)
+        form.addRow(QLabel("Needed to delete or amend a case and to export all cases. "
+                           "Leave the new passphrase empty to keep things as they are."))
+        self.message = QLabel()
+        self.message.setWordWrap(True)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Save | QDialogButtonBox.StandardButton.Cancel)
+        buttons.accepted.connect(self.save)
+        buttons.rejected.connect(self.reject)
+        layout = QVBoxLayout(self)
+        layout.addWidget(QLabel("<b>Footer on customer job reports</b>"))
+        layout.addWidget(self.footer)
+        layout.addWidget(owner)
+        layout.addWidget(self.message)
+        layout.addWidget(buttons)
+        self.resize(620, 360)
+
+    def save(self) -> None:
+        """Keep the footer; set or change the passphrase if a new one was typed. Messages stay
+        in the dialog; nothing half-saved is left behind for a passphrase that was refused."""
+        store = self.context.store
+        new, repeat = self.new.text(), self.repeat.text()
+        if new or repeat:
+            if new != repeat:
+                self.message.setText("\u26a0 The two new passphrases differ: type them again.")
+                self.repeat.clear()
+                self.repeat.setFocus()
+                return
+            try:
+                set_owner_passphrase(store, new, self.current.text() if self.has_passphrase else None)
+            except StoreError as err:
+                self.message.setText(f"\u26a0 {err}. Nothing was changed.")
+                self.current.clear() if self.has_passphrase else self.new.clear()
+                return
+        try:
+            set_setting(store, FOOTER_KEY, self.footer.toPlainText().strip())
+        except StoreError as err:
+            self.message.setText(f"\u26a0 {err}")
+            return
+        self.accept()
