@@ -1,9 +1,8 @@
 """A trainee's progress from their kept attempts, and what one attempt is kept as.
 
-An attempt is kept as its scenario id (source, level, family, root fault, seed), with ":coach"
-added when the coach was asked and ":blown" when the trainee blew the fuse on plain mains (that
-slip caps the band lowest, so progress must know it), the checks taken, the bench minutes, the
-score and the slips.
+An attempt is kept as its scenario id (source, level, family, root fault, seed), the checks taken,
+the bench minutes, the score, the slips, whether the coach was asked, and whether the trainee blew
+the fuse on plain mains (that slip caps the band lowest, so progress must know it).
 """
 
 from __future__ import annotations
@@ -15,8 +14,6 @@ from fixbench.practice.debrief import Debrief
 from fixbench.practice.round import PracticeRound
 from fixbench.practice.scoring import NEARLY, PRACTISE, READY, band_of
 
-COACH_MARK = "coach"
-BLOWN_MARK = "blown"
 RECENT = 5  # rounds that count as "recent" for the trend
 
 
@@ -27,6 +24,8 @@ class AttemptRecord:
     minutes: float
     score: float
     safety_slips: int
+    coach_used: bool = False
+    fuse_blown: bool = False
 
     @property
     def level(self) -> str:
@@ -39,12 +38,8 @@ class AttemptRecord:
         return parts[2] if len(parts) > 2 else "?"
 
     @property
-    def coached(self) -> bool:
-        return COACH_MARK in self.scenario.split(":")[5:]
-
-    @property
     def band(self) -> str:
-        if BLOWN_MARK in self.scenario.split(":")[5:]:
+        if self.fuse_blown:
             return PRACTISE
         band = band_of(self.score)
         return NEARLY if band == READY and self.safety_slips else band
@@ -63,12 +58,10 @@ class Progress:
 
 def attempt_fields(practice: PracticeRound, debrief: Debrief) -> dict:
     """Keyword arguments for the store's add_practice_attempt (without the trainee)."""
-    marks = [COACH_MARK] if practice.coach_looks else []
-    if any(slip.blew_fuse for slip in debrief.slips):
-        marks.append(BLOWN_MARK)
-    scenario = ":".join([practice.scenario.id] + marks)
-    return {"scenario": scenario, "checks_used": len(practice.steps), "minutes": practice.clock,
-            "score": debrief.score.total, "safety_slips": len(debrief.slips)}
+    return {"scenario": practice.scenario.id, "checks_used": len(practice.steps),
+            "minutes": practice.clock, "score": debrief.score.total,
+            "safety_slips": len(debrief.slips), "coach_used": bool(practice.coach_looks),
+            "fuse_blown": any(slip.blew_fuse for slip in debrief.slips)}
 
 
 def progress_of(attempts: list[AttemptRecord]) -> Progress:
@@ -82,5 +75,5 @@ def progress_of(attempts: list[AttemptRecord]) -> Progress:
         earlier_mean=statistics.fmean(earlier) if earlier else None,
         ready_rounds=sum(a.band == READY for a in attempts),
         rounds_with_slips=sum(a.safety_slips > 0 for a in attempts),
-        coached_rounds=sum(a.coached for a in attempts),
+        coached_rounds=sum(a.coach_used for a in attempts),
     )

@@ -120,6 +120,8 @@ class LoggedRepair:
     part_id: str
     action: str
     cost_cents: int
+    value_fitted: str | None  # a replaced part's new value, as written
+    test_passed: bool | None  # a tested part's result (None for a replaced part)
     note: str
 
 
@@ -162,7 +164,8 @@ def load_case(store: Store, case_id: int) -> CaseRecord:
         skipped = tuple(session.scalars(select(SkippedCheck.check_id)
                                         .where(SkippedCheck.case_id == case_id)
                                         .order_by(SkippedCheck.id)))
-        repairs = tuple(LoggedRepair(r.part_id, r.action, r.parts_cost_cents, r.note)
+        repairs = tuple(LoggedRepair(r.part_id, r.action, r.parts_cost_cents, r.value_fitted,
+                                     r.test_passed, r.note)
                         for r in session.scalars(select(RepairAction)
                                                  .where(RepairAction.case_id == case_id)
                                                  .order_by(RepairAction.id)))

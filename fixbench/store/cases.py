@@ -125,19 +125,34 @@ def move_case(store: Store, case_id: int, status: str) -> None:
 
 def add_repair_action(store: Store, case_id: int, *, part_id: str, action: str,
                       fault_id: str | None = None, parts_cost_cents: int = 0, note: str = "",
+                      value_fitted: str | None = None, test_passed: bool | None = None,
                       done_at: datetime | None = None) -> int:
-    """Keep a part replaced or tested; moves a diagnosing case to repairing."""
+    """Keep a part replaced (with the value fitted, if written down) or tested before power-up
+    (with its result, passed or failed); moves a diagnosing case to repairing."""
     if action not in REPAIR_KINDS:
         raise StoreInputError(f"a repair action is one of {', '.join(REPAIR_KINDS)}")
     if parts_cost_cents < 0:
         raise StoreInputError("parts cost cannot be negative")
+    if value_fitted is not None:
+        value_fitted = checked_text(value_fitted, "value fitted").strip() or None
+    if action == "tested":
+        if test_passed is None:
+            raise StoreInputError("a tested part needs its result: passed or failed")
+        if value_fitted is not None:
+            raise StoreInputError("nothing is fitted when a part is only tested; keep the "
+                                  "replacement as its own line")
+    elif test_passed is not None:
+        raise StoreInputError("a replaced part has no test result; keep the test as its own "
+                              "'tested' line")
     with store.session() as session:
         case = _open_case(session, case_id)
         if case.status in ("intake", "diagnosing", "verifying"):
             case.status = "repairing"
         repair = RepairAction(case_id=case_id, part_id=checked_text(part_id, "part"),
                               fault_id=fault_id, action=action, parts_cost_cents=parts_cost_cents,
-                              note=checked_text(note, "note"), done_at=done_at or utc_now())
+                              note=checked_text(note, "note"), value_fitted=value_fitted,
+                              test_passed=None if test_passed is None else bool(test_passed),
+                              done_at=done_at or utc_now())
         session.add(repair)
         session.flush()
         return repair.id

@@ -3,11 +3,12 @@
 A simulated unit with the case's true fault (meter tolerance on, a few readings misread) is
 measured in the order the engine proposes, and the engine's ranked suspects are kept after each
 reading, until it concludes. The repair follows the conclusion: its parts are replaced at their
-cost, the parts it lists to test before power-up are tested (and replaced if they did fail). Then
-the verification checks the conclusion names are read on the unit as repaired: if a failed part
-was missed, the readings show it, the technician replaces what is still bad ("second look") and
-verifies again on the now healthy unit. Bench minutes are the book minutes of every check, part
-and verification; the technician's pace is applied by the writer.
+cost with their value written down, the parts it lists to test before power-up are tested and kept
+as passed or failed (a failed one is then replaced). Then the verification checks the conclusion
+names are read on the unit as repaired: if a failed part was missed, the readings show it, the
+technician replaces what is still bad ("second look") and verifies again on the now healthy unit.
+Bench minutes are the book minutes of every check, part and verification; the technician's pace is
+applied by the writer.
 
 Everything here is deterministic for a seed and touches no database.
 """
@@ -21,8 +22,10 @@ from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.engine.readings import read
 from fixbench.engine.repair_order import REPLACE_MINUTES
 from fixbench.engine.simulate import simulated_unit
-from fixbench.knowledge.model import Family
-from fixbench.physics.ratings import parse_ratings
+from fixbench.knowledge.model import Family, Part
+from fixbench.physics.parts import VALUE_UNITS, rated_voltage, value_of
+from fixbench.physics.ratings import Ratings, parse_ratings
+from fixbench.quantities import format_quantity
 from fixbench.store.cases import RankedSuspect
 
 WRONG_READING_RATE = 0.03  # a misread scale or a slipped probe, now and then [practice]
@@ -52,6 +55,8 @@ class PartWork:
     cost_cents: int
     note: str
     minutes: float
+    value_fitted: str | None = None  # a replaced part's value, as a technician writes it
+    test_passed: bool | None = None  # a tested part's result
 
 
 @dataclass(frozen=True)
@@ -117,24 +122,25 @@ def engine_bench_session(family: Family, ratings: dict, fault_id: str, seed: int
     rounds, fixed = [], set()
     work = []
     for action in conclusion.replace:
-        work.append(_replaced(family, action.part, _root_of(family, conclusion.faults, action.part),
+        work.append(_replaced(family, parsed, action.part,
+                              _root_of(family, conclusion.faults, action.part),
                               "replaced as the diagnosis concluded"))
         fixed.add(action.part)
     for action in conclusion.test_before_power:
         if action.part in fixed:
             continue
-        if action.part in failed:
-            work.append(_replaced(family, action.part, None, "failed its test before power-up"))
+        passed = action.part not in failed
+        work.append(PartWork(action.part, None, "tested", 0, "", TEST_MINUTES, test_passed=passed))
+        if not passed:
+            work.append(_replaced(family, parsed, action.part, None,
+                                  "failed its test before power-up"))
             fixed.add(action.part)
-        else:
-            work.append(PartWork(action.part, None, "tested", 0, "tested good before power-up",
-                                 TEST_MINUTES))
     rounds.append(RepairRound(tuple(work), _verify(family, parsed, conclusion.verify, failed,
                                                    fixed, seed)))
     if not rounds[-1].passed:
         missed = [part for part in failed if part not in fixed]
-        work = [_replaced(family, part, None, "found on a second look after a failed check")
-                for part in missed]
+        work = [_replaced(family, parsed, part, None,
+                          "found on a second look after a failed check") for part in missed]
         fixed.update(missed)
         rounds.append(RepairRound(tuple(work), _verify(family, parsed, conclusion.verify, failed,
                                                        fixed, seed + 1)))
@@ -146,9 +152,23 @@ def _root_of(family: Family, faults: tuple[str, ...], part_id: str) -> str | Non
     return next((f for f in faults if f != NO_FAULT and family.fault(f).part == part_id), None)
 
 
-def _replaced(family: Family, part_id: str, fault_id: str | None, note: str) -> PartWork:
-    cost = family.part(part_id).cost
-    return PartWork(part_id, fault_id, "replaced", round(cost * 100), note, REPLACE_MINUTES)
+def _replaced(family: Family, ratings: Ratings, part_id: str, fault_id: str | None,
+              note: str) -> PartWork:
+    part = family.part(part_id)
+    return PartWork(part_id, fault_id, "replaced", round(part.cost * 100), note, REPLACE_MINUTES,
+                    value_fitted=value_fitted(part, ratings, family.design))
+
+
+def value_fitted(part: Part, ratings: Ratings, design: dict) -> str | None:
+    """What a technician writes down for a new part: its value, with a capacitor's voltage rating
+    ("22 uF 50 V"); None for a part bought by type (semiconductors, controllers, leads) and for a
+    transformer, whose value in the family file is its winding resistance, not a marking."""
+    if part.value is None or part.kind not in VALUE_UNITS or part.kind == "transformer":
+        return None
+    text = format_quantity(value_of(part, ratings, design), VALUE_UNITS[part.kind])
+    if part.rated:
+        text += " " + format_quantity(rated_voltage(part, ratings, design), "V")
+    return text
 
 
 def _verify(family, ratings, steps, failed: dict, fixed: set, seed: int) -> tuple:

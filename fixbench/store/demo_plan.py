@@ -109,6 +109,8 @@ class DemoPractice:
     minutes: float
     score: float
     safety_slips: int
+    coach_used: bool = False
+    fuse_blown: bool = False
 
 
 def catalogue_from_knowledge(kb) -> list[FaultChoice]:
@@ -189,8 +191,10 @@ def _plan_case(rng, number, opened, device, fault, earlier) -> DemoCase:
 
 
 def plan_practice(seed: int, catalogue: list[FaultChoice]) -> list[DemoPractice]:
-    """Trainees' practice rounds: weekly, improving in score and safety over the two years."""
+    """Trainees' practice rounds: weekly, improving in score and safety over the two years, asking
+    the coach less as they go; a third of the rounds with a slip blew the fuse."""
     rng = random.Random(seed + 1)
+    marks = random.Random(seed + 2)  # its own draws, so each round's other figures stay as planned
     rounds = []
     start = SHOP_END - timedelta(days=SHOP_DAYS)
     for week in range(SHOP_DAYS // 7):
@@ -198,10 +202,13 @@ def plan_practice(seed: int, catalogue: list[FaultChoice]) -> list[DemoPractice]
         for trainee in TRAINEES:
             scenario = rng.choices(catalogue, [c.weight for c in catalogue])[0]
             checks = max(2, round(rng.gauss(9 - 4 * progress, 1.5)))
+            minutes = round(max(4.0, rng.gauss(30 - 14 * progress, 4)), 1)
+            score = round(min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 2)
+            slips = max(0, round(rng.gauss(1.5 - 1.4 * progress, 0.6)))
             rounds.append(DemoPractice(
                 trainee=trainee, scenario=scenario.fault_id,
                 attempted_at=start + timedelta(weeks=week, days=4, hours=16),
-                checks_used=checks, minutes=round(max(4.0, rng.gauss(30 - 14 * progress, 4)), 1),
-                score=round(min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 2),
-                safety_slips=max(0, round(rng.gauss(1.5 - 1.4 * progress, 0.6)))))
+                checks_used=checks, minutes=minutes, score=score, safety_slips=slips,
+                coach_used=marks.random() < 0.6 - 0.5 * progress,
+                fuse_blown=slips > 0 and marks.random() < 1 / 3))
     return rounds

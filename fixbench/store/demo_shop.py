@@ -63,7 +63,8 @@ def build_demo_shop(store: Store, seed: int = 1, *, days: int = SHOP_DAYS, kb=No
                              scenario=practice.scenario, checks_used=practice.checks_used,
                              minutes=practice.minutes, score=practice.score,
                              safety_slips=practice.safety_slips,
-                             attempted_at=practice.attempted_at)
+                             attempted_at=practice.attempted_at,
+                             coach_used=practice.coach_used, fuse_blown=practice.fuse_blown)
     return len(cases)
 
 
@@ -90,7 +91,8 @@ def _write_case(store: Store, family: Family, planned: DemoCase, technician_id: 
         for work in repair.work:
             add_repair_action(store, case_id, part_id=work.part_id, fault_id=work.fault_id,
                               action=work.action, parts_cost_cents=work.cost_cents,
-                              note=work.note, done_at=clock.spend(work.minutes))
+                              note=work.note, value_fitted=work.value_fitted,
+                              test_passed=work.test_passed, done_at=clock.spend(work.minutes))
         for check in repair.verification:
             add_verification(store, case_id, check_id=check.check_id, typed=check.typed,
                              value=check.value, unit=check.unit, outcome=check.outcome,

@@ -149,6 +149,8 @@ class Suspect(Base):
 
 
 class RepairAction(Base):
+    """A part replaced, or tested before power-up, on a case; ``note`` is free text."""
+
     __tablename__ = "repair_actions"
     id: Mapped[int] = mapped_column(primary_key=True)
     case_id: Mapped[int] = mapped_column(ForeignKey("cases.id", ondelete="CASCADE"), index=True)
@@ -158,6 +160,11 @@ class RepairAction(Base):
     parts_cost_cents: Mapped[int] = mapped_column(Integer, default=0)
     done_at: Mapped[datetime] = mapped_column(DateTime)
     note: Mapped[str] = mapped_column(Text, default="")
+    # What went in for a replaced part, as the technician wrote it ("22 uF 50 V", a part number).
+    value_fitted: Mapped[str | None] = mapped_column(Text)
+    # A part tested before power-up: passed or failed. None for a replaced part, and for a tested
+    # part kept before migration 0005, whose result was never recorded.
+    test_passed: Mapped[bool | None] = mapped_column(Boolean)
 
 
 class Verification(Base):
@@ -176,6 +183,8 @@ class Verification(Base):
 
 
 class PracticeAttempt(Base):
+    """One practice round: its scenario id (source, level, family, root fault, seed), how it went."""
+
     __tablename__ = "practice_attempts"
     id: Mapped[int] = mapped_column(primary_key=True)
     trainee_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"), index=True)
@@ -185,6 +194,9 @@ class PracticeAttempt(Base):
     score: Mapped[float] = mapped_column(Float)
     safety_slips: Mapped[int] = mapped_column(Integer, default=0)
     attempted_at: Mapped[datetime] = mapped_column(DateTime)
+    coach_used: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
+    # The trainee blew the fuse on plain mains: that slip caps the round's band lowest.
+    fuse_blown: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
 
 
 class Amendment(Base):

@@ -51,8 +51,10 @@ def add_device(store: Store, *, make: str, model: str, kind: str,
 
 def add_practice_attempt(store: Store, *, trainee_id: int, scenario: str, checks_used: int,
                          minutes: float, score: float, safety_slips: int,
-                         attempted_at: datetime | None = None) -> int:
-    """Keep one practice round a trainee played (scenario id, effort, score, safety slips)."""
+                         attempted_at: datetime | None = None, coach_used: bool = False,
+                         fuse_blown: bool = False) -> int:
+    """Keep one practice round a trainee played: scenario id, effort, score, safety slips, whether
+    the coach was asked and whether the trainee blew the fuse."""
     if checks_used < 0 or minutes < 0 or safety_slips < 0:
         raise StoreInputError("checks, minutes and safety slips cannot be negative")
     with store.session() as session:
@@ -61,7 +63,8 @@ def add_practice_attempt(store: Store, *, trainee_id: int, scenario: str, checks
             raise StoreInputError(f"there is no technician {trainee_id}")
         attempt = PracticeAttempt(trainee_id=trainee_id, scenario=checked_text(scenario, "scenario"),
                                   checks_used=checks_used, minutes=minutes, score=score,
-                                  safety_slips=safety_slips, attempted_at=attempted_at or utc_now())
+                                  safety_slips=safety_slips, attempted_at=attempted_at or utc_now(),
+                                  coach_used=bool(coach_used), fuse_blown=bool(fuse_blown))
         session.add(attempt)
         session.flush()
         return attempt.id

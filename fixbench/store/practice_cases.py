@@ -43,7 +43,8 @@ def replayable_cases(store: Store, family_ids: set[str] | None = None, limit: in
 def attempts_of(store: Store, trainee_id: int, limit: int = ATTEMPTS_LIMIT) -> list[AttemptRecord]:
     """One trainee's most recent attempts, oldest first."""
     query = (select(PracticeAttempt.scenario, PracticeAttempt.checks_used, PracticeAttempt.minutes,
-                    PracticeAttempt.score, PracticeAttempt.safety_slips)
+                    PracticeAttempt.score, PracticeAttempt.safety_slips,
+                    PracticeAttempt.coach_used, PracticeAttempt.fuse_blown)
              .where(PracticeAttempt.trainee_id == trainee_id)
              .order_by(PracticeAttempt.attempted_at.desc(), PracticeAttempt.id.desc()).limit(limit))
     with store.session() as session:

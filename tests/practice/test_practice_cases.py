@@ -42,3 +42,18 @@ def test_attempts_come_oldest_first_and_every_trainee_is_summed(tmp_path):
     assert [s.name for s in summaries] == ["Ada Test", "Bo Test"]
     assert summaries[0].rounds == 2 and summaries[0].mean_score == 70 and summaries[0].rounds_with_slips == 1
     assert summaries[1].rounds == 0
+
+
+def test_coach_use_and_a_blown_fuse_are_kept_beside_the_scenario_id(tmp_path):
+    store = open_store(tmp_path / "t.sqlite")
+    ada = add_technician(store, "Ada Test", role="trainee")
+    add_practice_attempt(store, trainee_id=ada, scenario="drawn:easy:f:a:s1", checks_used=3, minutes=5,
+                         score=95, safety_slips=1, attempted_at=datetime(2024, 1, 1),
+                         coach_used=True, fuse_blown=True)
+    add_practice_attempt(store, trainee_id=ada, scenario="drawn:easy:f:a:s2", checks_used=4, minutes=6,
+                         score=95, safety_slips=0, attempted_at=datetime(2024, 1, 2))
+    blown, clean = attempts_of(store, ada)
+    assert (blown.scenario, blown.coach_used, blown.fuse_blown) == ("drawn:easy:f:a:s1", True, True)
+    assert (clean.coach_used, clean.fuse_blown) == (False, False)  # the defaults
+    assert blown.band == "Keep practising" and clean.band == "Bench-ready"
+    store.close()

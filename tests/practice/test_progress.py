@@ -22,10 +22,10 @@ def test_progress_compares_recent_rounds_with_earlier_ones():
 def test_a_slip_keeps_a_stored_round_out_of_the_top_band():
     assert AttemptRecord("drawn:normal:f:x:s1", 3, 5.0, 90.0, 1).band == NEARLY
     assert AttemptRecord("drawn:normal:f:x:s1", 3, 5.0, 90.0, 0).band == READY
-    assert AttemptRecord("drawn:normal:f:x:s1:blown", 3, 5.0, 90.0, 1).band == PRACTISE
+    assert AttemptRecord("drawn:normal:f:x:s1", 3, 5.0, 90.0, 1, fuse_blown=True).band == PRACTISE
 
 
-def test_an_attempt_is_kept_with_its_scenario_and_coach_mark(flyback):
+def test_an_attempt_is_kept_with_its_scenario_and_the_coach_asked(flyback):
     scenario = Scenario("pwm_flyback", (("current", "2 A"), ("mains", "230 V"), ("output", "12 V")),
                         "Q1.short", (("Q1", "short"), ("F1", "open")), "normal", 3, False)
     practice = PracticeRound(flyback, scenario)
@@ -34,9 +34,10 @@ def test_an_attempt_is_kept_with_its_scenario_and_coach_mark(flyback):
     practice.take("mosfet_drain_source")
     practice.commit("Q1.short", {"Q1", "F1"})
     fields = attempt_fields(practice, debrief_round(practice, engine_path(flyback, scenario)))
-    assert fields["scenario"] == "drawn:normal:pwm_flyback:Q1.short:s3:coach"
+    assert fields["scenario"] == "drawn:normal:pwm_flyback:Q1.short:s3"  # the id alone
+    assert fields["coach_used"] and not fields["fuse_blown"]
     assert fields["checks_used"] == 2 and fields["safety_slips"] == 0
-    assert AttemptRecord(**fields).coached and AttemptRecord(**fields).level == "normal"
+    assert AttemptRecord(**fields).coach_used and AttemptRecord(**fields).level == "normal"
 
 
 def test_blowing_the_fuse_is_kept_so_progress_shows_the_bottom_band(flyback):
@@ -46,5 +47,6 @@ def test_blowing_the_fuse_is_kept_so_progress_shows_the_bottom_band(flyback):
     practice.take("bulk_voltage")
     practice.commit("Q1.short", {"Q1", "F1"})
     fields = attempt_fields(practice, debrief_round(practice, engine_path(flyback, scenario)))
-    assert fields["scenario"].endswith(":blown")
-    assert AttemptRecord(**fields).band == PRACTISE and not AttemptRecord(**fields).coached
+    assert fields["scenario"] == "drawn:normal:pwm_flyback:Q1.short:s3"
+    assert fields["fuse_blown"] and not fields["coach_used"]
+    assert AttemptRecord(**fields).band == PRACTISE and not AttemptRecord(**fields).coach_used

@@ -86,11 +86,15 @@ def test_repairs_are_read_back_in_order(bench):
     store, tech, device = bench
     case_id = _open(store, tech, device)
     add_repair_action(store, case_id, part_id="C2", action="replaced", parts_cost_cents=45,
-                      note="22 uF 50 V")
-    add_repair_action(store, case_id, part_id="D2", action="tested")
+                      value_fitted="22 uF 50 V")
+    add_repair_action(store, case_id, part_id="D2", action="tested", test_passed=False)
+    add_repair_action(store, case_id, part_id="R3", action="tested", test_passed=True,
+                      note="read 0.47 ohm out of circuit")
     repairs = load_case(store, case_id).repairs
-    assert [(r.part_id, r.action, r.cost_cents, r.note) for r in repairs] == [
-        ("C2", "replaced", 45, "22 uF 50 V"), ("D2", "tested", 0, "")]
+    assert [(r.part_id, r.action, r.cost_cents, r.value_fitted, r.test_passed, r.note)
+            for r in repairs] == [
+        ("C2", "replaced", 45, "22 uF 50 V", None, ""), ("D2", "tested", 0, None, False, ""),
+        ("R3", "tested", 0, None, True, "read 0.47 ohm out of circuit")]
 
 
 def test_closed_case_refuses_bench_writes(bench):

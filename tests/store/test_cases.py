@@ -12,7 +12,7 @@ from sqlalchemy import func, select
 from fixbench.store.cases import (RankedSuspect, add_reading, add_repair_action,
                                   add_verification, close_case, move_case, open_case)
 from fixbench.store.errors import ClosedCaseError, StoreInputError
-from fixbench.store.models import Case, Reading, Suspect
+from fixbench.store.models import Case, Reading, RepairAction, Suspect
 from tests.store.conftest import RATINGS, START, record_case
 
 
@@ -51,7 +51,7 @@ def test_case_walks_intake_to_closed_through_repair_and_verification(bench):
                       parts_cost_cents=180)
     add_verification(store, case_id, check_id="output_voltage", typed="5.1 V", value=5.1,
                      unit="V", outcome=None, passed=False)
-    add_repair_action(store, case_id, part_id="D5", action="tested")
+    add_repair_action(store, case_id, part_id="D5", action="tested", test_passed=True)
     add_verification(store, case_id, check_id="output_voltage", typed="5.02 V", value=5.02,
                      unit="V", outcome=None, passed=True)
     close_case(store, case_id, outcome="repaired", bench_minutes=42, confirmed_fault="Q1.short",
@@ -74,6 +74,28 @@ def test_closed_case_refuses_new_readings_repairs_and_status_changes(bench):
         close_case(store, case_id, outcome="no_fault_found", bench_minutes=1)
     with store.session() as session:
         assert session.scalar(select(func.count()).select_from(Reading)) == 1
+
+
+@pytest.mark.parametrize("line, says", [
+    ({"action": "tested"}, "needs its result"),
+    ({"action": "tested", "test_passed": True, "value_fitted": "22 uF"}, "nothing is fitted"),
+    ({"action": "replaced", "test_passed": False}, "has no test result"),
+])
+def test_a_repair_line_with_a_result_or_value_it_cannot_have_is_refused(bench, line, says):
+    store, tech, device = bench
+    case_id = _open(store, tech, device)
+    with pytest.raises(StoreInputError, match=says):
+        add_repair_action(store, case_id, part_id="D5", **line)
+    with store.session() as session:
+        assert session.scalar(select(func.count()).select_from(RepairAction)) == 0
+
+
+def test_a_blank_value_fitted_is_kept_as_none(bench):
+    store, tech, device = bench
+    case_id = _open(store, tech, device)
+    add_repair_action(store, case_id, part_id="C2", action="replaced", value_fitted="  ")
+    with store.session() as session:
+        assert session.scalar(select(RepairAction.value_fitted)) is None
 
 
 def test_unknown_outcome_and_negative_minutes_are_refused(bench):

@@ -10,7 +10,7 @@ from fixbench.knowledge import load_knowledge
 from fixbench.physics.ratings import parse_ratings
 from fixbench.store.cases import RankedSuspect
 from fixbench.store.demo_bench import (KEPT_SUSPECTS, TEST_MINUTES, WRONG_READING_RATE,
-                                       engine_bench_session)
+                                       engine_bench_session, value_fitted)
 from fixbench.store.demo_plan import MODELS
 
 KB = load_knowledge()
@@ -49,11 +49,43 @@ def test_repair_follows_the_conclusion_and_the_last_verification_passes():
     for work in first.work:
         if work.action == "replaced":
             assert work.cost_cents == round(family.part(work.part_id).cost * 100)
+            assert work.test_passed is None
+            assert work.value_fitted == value_fitted(family.part(work.part_id),
+                                                     parse_ratings(RATINGS["pwm_flyback"]),
+                                                     family.design)
         else:
             assert (work.cost_cents, work.minutes) == (0, TEST_MINUTES)
+            assert work.test_passed in (True, False) and work.value_fitted is None
     verify_checks = [v.check for v in fresh.final_conclusion().verify]
     assert [v.check_id for v in played.rounds[-1].verification] == verify_checks
     assert played.rounds[-1].passed
+
+
+def test_a_part_that_fails_its_test_is_kept_failed_and_replaced_right_after():
+    family = KB.families["pwm_flyback"]
+    failed_tests = 0
+    for seed in range(8):
+        played = engine_bench_session(family, RATINGS["pwm_flyback"], "Q1.short", seed)
+        for repair in played.rounds:
+            work = list(repair.work)
+            for done, after in zip(work, work[1:] + [None]):
+                if done.action == "tested" and done.test_passed is False:
+                    failed_tests += 1
+                    assert (after.part_id, after.action) == (done.part_id, "replaced")
+                    assert after.note == "failed its test before power-up"
+            passed = {w.part_id for w in work if w.test_passed}
+            assert not passed & {w.part_id for w in work if w.action == "replaced"}
+    assert failed_tests  # the collateral damage of a shorted MOSFET shows in some units
+
+
+def test_the_value_fitted_is_the_parts_marking_as_a_technician_writes_it():
+    family = KB.families["pwm_flyback"]
+    ratings = parse_ratings(RATINGS["pwm_flyback"])
+    # C2 is "22 uF" rated "50 V" in knowledge/families/pwm_flyback.toml.
+    assert value_fitted(family.part("C2"), ratings, family.design) == "22 uF 50 V"
+    assert value_fitted(family.part("R2"), ratings, family.design) == "22 ohm"
+    assert value_fitted(family.part("Q1"), ratings, family.design) is None  # bought by type
+    assert value_fitted(family.part("T1"), ratings, family.design) is None  # a winding resistance
 
 
 def test_a_healthy_unit_is_concluded_healthy_and_gets_no_repair():

@@ -104,3 +104,6 @@ def test_trainees_practise_and_improve(catalogue):
     mean = lambda rs, key: sum(getattr(r, key) for r in rs) / len(rs)  # noqa: E731
     assert mean(last, "score") > mean(first, "score")
     assert mean(last, "safety_slips") < mean(first, "safety_slips")
+    assert mean(last, "coach_used") < mean(first, "coach_used")
+    blown = [r for r in rounds if r.fuse_blown]
+    assert blown and all(r.safety_slips > 0 for r in blown)  # blowing the fuse is a slip

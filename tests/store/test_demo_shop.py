@@ -67,6 +67,21 @@ def test_repaired_cases_have_parts_at_cost_and_a_passing_last_verification(demo)
         assert unrepaired and all(c.confirmed_fault is None for c in unrepaired)
 
 
+def test_repair_lines_carry_the_value_fitted_or_the_test_result(demo):
+    store, _ = demo
+    with store.session() as session:
+        lines = session.execute(select(RepairAction.action, RepairAction.value_fitted,
+                                       RepairAction.test_passed)).all()
+        attempts = session.execute(select(PracticeAttempt.coach_used,
+                                          PracticeAttempt.fuse_blown)).all()
+    replaced = [(value, result) for action, value, result in lines if action == "replaced"]
+    tested = [(value, result) for action, value, result in lines if action == "tested"]
+    assert all(result is None for _, result in replaced)
+    assert any(value for value, _ in replaced)
+    assert tested and all(value is None and result is not None for value, result in tested)
+    assert any(coach for coach, _ in attempts)
+
+
 def test_figures_of_the_demo_look_like_a_working_shop(demo):
     store, count = demo
     (closed, repaired, first_time, comeback), = repair_rates(store).rows

@@ -139,3 +139,70 @@ def test_migration_that_would_orphan_child_rows_is_rolled_back(tmp_path, monkeyp
         assert current_revision(connection) == "0001"
         assert connection.exec_driver_sql("PRAGMA foreign_keys").scalar() == 1
     store.close()
+
+
+# Rows as revision 0004's code wrote them: marks appended to the scenario id, the bench's value
+# fitted (and the demo shop's sentences) in the repair line's note.
+ATTEMPTS_AT_0004 = {
+    1: "drawn:normal:pwm_flyback:Q1.short:s3:coach",
+    2: "replay:easy:self_oscillating:R1.open:s7:blown",
+    3: "drawn:hard:primary_side:C3.dried:s1:coach:blown",
+    4: "drawn:easy:pwm_flyback:R3.open:s2",
+    5: "open_startup_resistor",  # the first schema's demo kept a bare fault id
+    6: "blown:coach",  # no scenario id before the words: the 0004 reader saw no marks here
+}
+REPAIRS_AT_0004 = {  # id: (action, note)
+    1: ("replaced", "22 uF 50 V"),
+    2: ("replaced", ""),
+    3: ("replaced", "replaced as the diagnosis concluded"),
+    4: ("tested", "tested good before power-up"),
+    5: ("tested", "looked fine"),
+    6: ("replaced", "found on a second look after a failed check"),
+    7: ("tested", ""),
+}
+
+
+def test_revision_0004_marks_and_bench_values_move_into_their_columns(store_url):
+    store = open_store(store_url, migrate=False)
+    upgrade(store, "0004")
+    with store.engine.begin() as connection:
+        _fill_v1(connection, cases=1)
+        for attempt_id, scenario in ATTEMPTS_AT_0004.items():
+            connection.execute(_sql(
+                "INSERT INTO practice_attempts (id, trainee_id, scenario, checks_used, minutes, "
+                "score, safety_slips, attempted_at) VALUES (:id, 2, :s, 6, 12.5, 80, 0, :at)"),
+                {"id": 100 + attempt_id, "s": scenario, "at": datetime(2024, 2, 1)})
+        for repair_id, (action, note) in REPAIRS_AT_0004.items():
+            connection.execute(_sql(
+                "INSERT INTO repair_actions (id, case_id, part_id, action, parts_cost_cents, "
+                "done_at, note) VALUES (:id, 1, 'C2', :a, 45, :at, :n)"),
+                {"id": 100 + repair_id, "a": action, "n": note, "at": datetime(2024, 2, 1)})
+    before = _counts(store)
+
+    upgrade(store, "head")
+
+    assert _counts(store) == before
+    with store.engine.connect() as connection:
+        attempts = {i - 100: (s, bool(c), bool(b)) for i, s, c, b in connection.execute(text(
+            "SELECT id, scenario, coach_used, fuse_blown FROM practice_attempts WHERE id > 100"))}
+        repairs = {i - 100: (n, v, None if p is None else bool(p)) for i, n, v, p in
+                   connection.execute(text("SELECT id, note, value_fitted, test_passed "
+                                           "FROM repair_actions WHERE id > 100"))}
+    assert attempts == {
+        1: ("drawn:normal:pwm_flyback:Q1.short:s3", True, False),
+        2: ("replay:easy:self_oscillating:R1.open:s7", False, True),
+        3: ("drawn:hard:primary_side:C3.dried:s1", True, True),
+        4: ("drawn:easy:pwm_flyback:R3.open:s2", False, False),
+        5: ("open_startup_resistor", False, False),
+        6: ("blown:coach", False, False),
+    }
+    assert repairs == {
+        1: ("", "22 uF 50 V", None),  # the bench's value field
+        2: ("", None, None),
+        3: ("replaced as the diagnosis concluded", None, None),  # the demo's free notes stay
+        4: ("tested good before power-up", None, True),
+        5: ("looked fine", None, None),  # a tested part's note says nothing reliable
+        6: ("found on a second look after a failed check", None, None),
+        7: ("", None, None),
+    }
+    store.close()

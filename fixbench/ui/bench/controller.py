@@ -193,10 +193,14 @@ class BenchController(QObject):
     def back_to_checks(self) -> None:
         self.page_wanted.emit("guided")
 
-    def record_repair(self, part_id: str, action: str, value_text: str, cost_cents: int) -> None:
+    def record_repair(self, part_id: str, action: str, value_text: str, test_passed: bool | None,
+                      cost_cents: int) -> None:
         case, store = self.view.case, self.context.store
-        self._queue(lambda: records.keep_repair(store, case, part_id, action, value_text, cost_cents),
-                    lambda repairs: self._show(repairs=repairs, notice=f"Kept: {part_id} {action}."))
+        kept = action if test_passed is None else (
+            f"{action}, {'passed' if test_passed else 'failed'}")
+        self._queue(lambda: records.keep_repair(store, case, part_id, action, value_text,
+                                                test_passed, cost_cents),
+                    lambda repairs: self._show(repairs=repairs, notice=f"Kept: {part_id} {kept}."))
 
     def go_verify(self) -> None:
         self.page_wanted.emit("verify")

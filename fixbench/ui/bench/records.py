@@ -165,9 +165,11 @@ def keep_undo(store, case: CaseInView, state) -> object:
 
 
 def keep_repair(store, case: CaseInView, part_id: str, action: str, value_text: str,
-                cost_cents: int) -> tuple[bench_log.LoggedRepair, ...]:
+                test_passed: bool | None, cost_cents: int) -> tuple[bench_log.LoggedRepair, ...]:
+    """Keep a repair line: a replaced part with its value fitted, a tested part with its result."""
     cases.add_repair_action(store, case.id, part_id=part_id, action=action,
-                            parts_cost_cents=cost_cents, note=value_text.strip())
+                            parts_cost_cents=cost_cents, value_fitted=value_text.strip() or None,
+                            test_passed=test_passed)
     return bench_log.load_case(store, case.id).repairs
 
 

@@ -1,5 +1,5 @@
 """Conclusion and repair: the parts to replace, the parts to test before power-up, and the record of
-what was replaced or tested (part, value fitted, cost)."""
+what was replaced (part, value fitted, cost) or tested (part, passed or failed)."""
 
 from __future__ import annotations
 
@@ -31,6 +31,15 @@ def parse_cost(text: str) -> int:
     return round(value * 100)
 
 
+def repair_line(repair) -> str:
+    """One kept repair line as the list shows it: "C2 replaced  22 uF 50 V  cost 0.45"."""
+    done = repair.action
+    if repair.test_passed is not None:
+        done += ": passed" if repair.test_passed else ": failed"
+    details = [text for text in (repair.value_fitted, repair.note) if text]
+    return "  ".join([f"{repair.part_id} {done}", *details, f"cost {repair.cost_cents / 100:.2f}"])
+
+
 class RepairPanel(QWidget):
     def __init__(self, controller, parent=None) -> None:
         super().__init__(parent)
@@ -46,6 +55,21 @@ class RepairPanel(QWidget):
         self.part = QComboBox()
         self.action = QComboBox()
         self.action.addItems(("replaced", "tested"))
+        self.action.setToolTip("Replaced, or tested before power-up (type r or t)")
+        # No result is chosen until the technician chooses one: a default "passed" could be kept
+        # for a part that failed.
+        self.result = QComboBox()
+        self.result.addItem("passed", True)
+        self.result.addItem("failed", False)
+        self.result.setPlaceholderText("passed or failed? (type p or f)")
+        self.result.setToolTip("The result of the test before power-up (type p or f)")
+        self.result_message = QLabel()
+        self.result_message.setWordWrap(True)
+        self.result_message.setVisible(False)
+        result_box = QVBoxLayout()
+        result_box.setContentsMargins(0, 0, 0, 0)
+        result_box.addWidget(self.result)
+        result_box.addWidget(self.result_message)
         self.value = CheckedField("value fitted, e.g. 22 uF 400 V or the part number")
         self.cost = CheckedField("parts cost, e.g. 1.20", parse_cost)
         self.record_button = QPushButton("Keep this repair line (Enter in Cost, or Alt+K)")
@@ -62,6 +86,7 @@ class RepairPanel(QWidget):
         form = QFormLayout()
         form.addRow("Part", self.part)
         form.addRow("Action", self.action)
+        form.addRow("Test result", result_box)
         form.addRow("Value fitted", self.value)
         form.addRow("Cost", self.cost)
         buttons = QHBoxLayout()
@@ -84,7 +109,22 @@ class RepairPanel(QWidget):
         self.verify_button.clicked.connect(controller.go_verify)
         for field in (self.value, self.cost):
             field.escaped.connect(controller.back_to_checks)
-        self.setFocusProxy(self.value)
+        self.action.currentTextChanged.connect(self._action_chosen)
+        self.result.currentIndexChanged.connect(
+            lambda _index: self.result_message.setVisible(False))
+        chain = (self.part, self.action, self.result, self.value, self.cost, self.record_button)
+        for before, after in zip(chain, chain[1:]):
+            QWidget.setTabOrder(before, after)
+        self._action_chosen(self.action.currentText())
+
+    def _action_chosen(self, action: str) -> None:
+        """A tested part takes a result and no value; a replaced part a value and no result."""
+        tested = action == "tested"
+        self.result.setEnabled(tested)
+        self.result.setCurrentIndex(-1)
+        self.result_message.setVisible(False)
+        self.value.setEnabled(not tested)
+        self.setFocusProxy(self.result if tested else self.value)
 
     def show_view(self, view) -> None:
         if view.case is None or view.state is None:
@@ -112,17 +152,28 @@ class RepairPanel(QWidget):
             self.part.setCurrentIndex(max(0, self.part.findData(current)))
         self.done_list.clear()
         for r in view.repairs:
-            cost = f"{r.cost_cents / 100:.2f}"
-            self.done_list.addItem(f"{r.part_id} {r.action}  {r.note}  cost {cost}")
+            self.done_list.addItem(repair_line(r))
         self.verify_button.setEnabled(bool(view.repairs) or (c is not None and c.no_fault))
 
     def record(self) -> None:
+        tested = self.action.currentText() == "tested"
+        if tested and self.result.currentIndex() < 0:
+            self.result_message.setText("\u26a0 Choose whether the part passed or failed its test "
+                                        "(p or f in Test result).")
+            self.result_message.setVisible(True)
+            self.result.setFocus()
+            return
         try:
             cents = self.cost.value()
         except ValueError:
             return
         self.controller.record_repair(self.part.currentData(), self.action.currentText(),
-                                      self.value.text(), cents)
+                                      "" if tested else self.value.text(),
+                                      self.result.currentData() if tested else None, cents)
         self.value.set_text("")
         self.cost.set_text("")
-        self.value.setFocus()
+        if tested:
+            self.result.setCurrentIndex(-1)
+            self.part.setFocus()  # each test is of another part
+        else:
+            self.value.setFocus()

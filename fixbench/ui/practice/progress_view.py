@@ -56,7 +56,7 @@ class AttemptsModel(_RowsModel):
 
     def cells(self, a: AttemptRecord) -> tuple[str, ...]:
         return (a.level, self.family_titles.get(a.family, a.family), str(a.checks_used), f"{a.minutes:g}", f"{a.score:g}", a.band,
-                str(a.safety_slips), "yes" if a.coached else "")
+                str(a.safety_slips), "yes" if a.coach_used else "")
 
 
 class TraineesModel(_RowsModel):

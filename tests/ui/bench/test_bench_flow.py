@@ -124,8 +124,8 @@ def test_dried_vcc_capacitor_found_repaired_and_closed(qtbot, bench, store, tmp_
     assert case.bench_minutes == 25 and case.confirmed_stage == "startup"
     assert [r.check_id for r in readings][0] == "symptom_ticking"
     assert len(readings) == len(steps) + 1
-    assert [(r.part_id, r.action, r.parts_cost_cents, r.note) for r in repairs] == [
-        ("C2", "replaced", 45, "22 uF 50 V")]
+    assert [(r.part_id, r.action, r.parts_cost_cents, r.value_fitted, r.test_passed, r.note)
+            for r in repairs] == [("C2", "replaced", 45, "22 uF 50 V", None, "")]
     assert verifications and all(v.passed for v in verifications)
     assert ack is not None
     assert "BW-1001" not in [bench.panels["cases"].model.data(bench.panels["cases"].model.index(r, 0))

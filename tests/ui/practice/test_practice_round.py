@@ -132,7 +132,9 @@ def test_two_rounds_from_pick_to_debrief_one_with_a_safety_slip(qtbot, screen, s
     assert [a.safety_slips for a in attempts] == [1, 0]
     assert attempts[0].scenario.startswith("replay:normal:pwm_flyback:Q1.short")
     assert attempts[0].band == "Keep practising"
-    assert attempts[1].coached and attempts[1].level == "easy"
+    assert attempts[0].fuse_blown and not attempts[0].coach_used
+    assert attempts[1].coach_used and not attempts[1].fuse_blown and attempts[1].level == "easy"
+    assert all(len(a.scenario.split(":")) == 5 for a in attempts)  # the scenario id, no marks
     assert attempts[1].score > attempts[0].score
 
     screen.tabs.setCurrentWidget(screen.progress_view)
@@ -140,6 +142,7 @@ def test_two_rounds_from_pick_to_debrief_one_with_a_safety_slip(qtbot, screen, s
     assert "2 rounds" in screen.progress_view.summary.text()
     bands = [screen.progress_view.attempts_model.index(r, 5).data() for r in range(2)]
     assert bands == ["Bench-ready", "Keep practising"]  # newest first
+    assert [screen.progress_view.attempts_model.index(r, 7).data() for r in range(2)] == ["yes", ""]
     snap(screen, tmp_path, "6_progress")
 
 
