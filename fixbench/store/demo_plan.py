@@ -203,10 +203,14 @@ def plan_practice(seed: int, catalogue: list[FaultChoice]) -> list[DemoPractice]
             scenario = rng.choices(catalogue, [c.weight for c in catalogue])[0]
             checks = max(2, round(rng.gauss(9 - 4 * progress, 1.5)))
             minutes = round(max(4.0, rng.gauss(30 - 14 * progress, 4)), 1)
-            score = round(min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 2)
+            # Out of 100, as practice rounds are scored (fixbench.practice.scoring).
+            score = round(100 * min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 1)
             slips = max(0, round(rng.gauss(1.5 - 1.4 * progress, 0.6)))
             rounds.append(DemoPractice(
-                trainee=trainee, scenario=scenario.fault_id,
+                trainee=trainee,
+                # The scenario id as a practice round writes it (fixbench.practice.scenario.Scenario.id).
+                scenario=f"drawn:{'easy' if progress < 0.25 else 'normal'}:{scenario.family_id}:"
+                         f"{scenario.fault_id}:s{seed * 1000 + week}",
                 attempted_at=start + timedelta(weeks=week, days=4, hours=16),
                 checks_used=checks, minutes=minutes, score=score, safety_slips=slips,
                 coach_used=marks.random() < 0.6 - 0.5 * progress,

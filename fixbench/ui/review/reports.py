@@ -87,7 +87,8 @@ def write_job_report(store: Store, kb: KnowledgeBase, case_id: int, path: str | 
         report.html(f"<h2>What we found</h2><p>{escape(found)}<br/>Result: "
                     f"<b>{escape(outcome_name(case.outcome, case.status))}</b>. "
                     f"Supply type: {escape(family_name(fam))}.</p>")
-        replaced = [(r.part_id, names.part(r.part_id, fam), r.action,
+        replaced = [(r.part_id, names.part(r.part_id, fam) + (f" ({r.value_fitted})" if r.value_fitted else ""),
+                     r.action if r.test_passed is None else f"{r.action}: {'passed' if r.test_passed else 'failed'}",
                      f"{r.parts_cost_cents / 100:.2f}") for r in repairs]
         total = sum(r.parts_cost_cents for r in repairs) / 100
         report.html("<h2>What we replaced</h2>" + (

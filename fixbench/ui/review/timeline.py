@@ -197,6 +197,9 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                               f"{repair.action.capitalize()} {repair.part_id}: "
                               f"{names.part(repair.part_id, fam)}",
                               (f"Parts cost {repair.parts_cost_cents / 100:.2f}",)
+                              + ((f"Fitted: {repair.value_fitted}",) if repair.value_fitted else ())
+                              + ((f"Test before power-up: {'passed' if repair.test_passed else 'failed'}",)
+                                 if repair.test_passed is not None else ())
                               + ((repair.note,) if repair.note else ())))
         for skip in session.scalars(select(SkippedCheck).where(SkippedCheck.case_id == case_id)):
             steps.append(Step(skip.skipped_at, "skipped",

@@ -129,3 +129,26 @@ def test_csv_export_refuses_a_wrong_passphrase_in_words(qtbot, history, owner_pa
     assert not out.exists()
     assert "passphrase was not accepted" in history.busy.message.text()
     assert "Traceback" not in history.busy.message.text()
+
+
+def test_job_report_names_the_value_fitted_and_test_results(demo_store, knowledge, tmp_path):
+    import subprocess
+
+    from sqlalchemy import select
+
+    from fixbench.store.models import RepairAction
+    from fixbench.ui.review.reports import write_job_report
+
+    with demo_store.reading() as session:
+        tested = select(RepairAction.case_id).where(RepairAction.test_passed.is_not(None))
+        case_id = session.scalar(select(RepairAction.case_id).where(RepairAction.value_fitted.is_not(None),
+                                                                    RepairAction.case_id.in_(tested)))
+        lines = list(session.scalars(select(RepairAction).where(RepairAction.case_id == case_id)))
+    if case_id is None:
+        pytest.skip("the shop has no case with both a fitted value and a tested part")
+    pdf = tmp_path / "job.pdf"
+    write_job_report(demo_store, knowledge, case_id, pdf, footer="")
+    text = subprocess.run(["pdftotext", "-layout", str(pdf), "-"], capture_output=True, text=True).stdout
+    fitted = next(r.value_fitted for r in lines if r.value_fitted)
+    assert fitted.split()[0] in text
+    assert "tested: passed" in text or "tested: failed" in text
