@@ -125,21 +125,34 @@ def _bulk_fill(store, rng: random.Random, first: int, last: int, n_devices: int)
         recompute_all_flags(connection)
 
 
+def add_bench_people_and_units(store, cases: int) -> int:
+    """The benchmark shop's six people and its units (four for every five cases); returns the
+    number of units."""
+    n_devices = max(1, int(cases * 0.8))
+    with store.engine.begin() as connection:
+        connection.execute(insert(Technician), [dict(id=i, name=f"Bench person {i}",
+                                                     role="technician", active=True)
+                                                for i in range(1, 7)])
+        connection.execute(insert(Device), [dict(id=i, make=f"Make {i % 40}",
+                                                 model=f"Model {i % 400}", kind="usb adapter",
+                                                 label_ratings={}, serial=None)
+                                            for i in range(1, n_devices + 1)])
+    return n_devices
+
+
+def fill_bench_shop(store, cases: int, seed: int = 1) -> None:
+    """A benchmark shop of ``cases`` cases, written in bulk (for the screens' benchmarks)."""
+    n_devices = add_bench_people_and_units(store, cases)
+    _bulk_fill(store, random.Random(seed), 1, cases, n_devices)
+
+
 def run_store_benchmark(cases: int = 100_000, seed: int = 1) -> dict:
     """Fill a temporary SQLite shop with ``cases`` cases and return the measurements."""
     rng = random.Random(seed)
     with tempfile.TemporaryDirectory(prefix="fixbench-bench-") as folder:
         path = Path(folder) / "bench.sqlite"
         store = open_store(path)
-        n_devices = max(1, int(cases * 0.8))
-        with store.engine.begin() as connection:
-            connection.execute(insert(Technician), [dict(id=i, name=f"Bench person {i}",
-                                                         role="technician", active=True)
-                                                    for i in range(1, 7)])
-            connection.execute(insert(Device), [dict(id=i, make=f"Make {i % 40}",
-                                                     model=f"Model {i % 400}", kind="usb adapter",
-                                                     label_ratings={}, serial=None)
-                                                for i in range(1, n_devices + 1)])
+        n_devices = add_bench_people_and_units(store, cases)
         sample = min(API_SAMPLE_CASES, cases)
         began = time.perf_counter()
         api_readings = _api_sample(store, rng, 1, sample, n_devices)

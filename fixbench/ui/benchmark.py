@@ -167,19 +167,24 @@ def _startup_database(folder: Path) -> Path:
     return path
 
 
+REVIEW_KEYS = ("history_open_ms", "filter_ms", "figures_ms")
+REVIEW_TARGET_MS = 1000.0  # each, with 100,000 cases
+
+
 def run_ui_benchmark(cases: int) -> dict:
     with tempfile.TemporaryDirectory(prefix="fixbench-ui-") as temp:
         folder = Path(temp)
         result = {"targets": {"startup_ratio": STARTUP_TARGET, "reading_update_ms_median": READING_TARGET_MS}}
         result.update(measure_startup(_startup_database(folder)))
         result.update(measure_reading_update(folder))
-    try:
-        from fixbench.ui.review.benchmark import measure_review
-    except ModuleNotFoundError as err:
-        result["review"] = None
-        result["review_note"] = f"not measured: {err.name} is not installed yet"
-    else:
-        result["review"] = measure_review(cases)
+    from fixbench.ui.review.benchmark import measure_review
+
+    review = measure_review(cases)
+    result["review"] = review
+    # The owner's screens' figures, at the top level where scripts look for them.
+    for key in REVIEW_KEYS:
+        result[key] = review[key]
+    result["targets"].update({key: REVIEW_TARGET_MS for key in REVIEW_KEYS})
     return result
 
 
@@ -197,7 +202,8 @@ def print_ui_report(result: dict) -> None:
           f"{result['reading_update_ms_p90']:.1f} ms, worst {result['reading_update_ms_max']:.1f} ms   "
           f"(target median <= {READING_TARGET_MS:g} ms: "
           f"{ok(result['reading_update_ms_median'] <= READING_TARGET_MS)})")
-    if result.get("review") is None:
-        print(f"Review screens: {result.get('review_note', 'not measured')}")
-    else:
-        print("Review screens: " + ", ".join(f"{k} {v}" for k, v in result["review"].items()))
+    print(f"Owner's screens with {result['review']['review_cases']:,} cases:")
+    for key, title in zip(REVIEW_KEYS, ("history tab with its first page", "a filter applied",
+                                        "figures tab drawn")):
+        print(f"  {title:34s} {result[key]:8.1f} ms   (target <= {REVIEW_TARGET_MS:g} ms: "
+              f"{ok(result[key] <= REVIEW_TARGET_MS)})")

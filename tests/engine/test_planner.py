@@ -3,13 +3,11 @@
 from __future__ import annotations
 
 import dataclasses
-import random
 
 import numpy as np
 import pytest
 
 from fixbench.engine import planner, simulate_readings
-from fixbench.engine.inference import posterior
 from fixbench.engine.simulate import simulated_unit
 
 

@@ -12,33 +12,21 @@ Target at 100,000 cases: 1 s each. Run by ``fixbench benchmark ui``.
 from __future__ import annotations
 
 import os
-import random
 import tempfile
 import time
 from pathlib import Path
 
-from sqlalchemy import insert
 
 TARGET_MS = 1000.0
 TIMEOUT_S = 120.0
 
 
 def _fill(path: Path, cases: int):
-    from fixbench.store.benchmark import _bulk_fill
+    from fixbench.store.benchmark import fill_bench_shop
     from fixbench.store.database import open_store
-    from fixbench.store.models import Device, Technician
 
     store = open_store(path)
-    n_devices = max(1, int(cases * 0.8))
-    with store.engine.begin() as connection:
-        connection.execute(insert(Technician), [dict(id=i, name=f"Bench person {i}",
-                                                     role="technician", active=True)
-                                                for i in range(1, 7)])
-        connection.execute(insert(Device), [dict(id=i, make=f"Make {i % 40}",
-                                                 model=f"Model {i % 400}", kind="usb adapter",
-                                                 label_ratings={}, serial=None)
-                                            for i in range(1, n_devices + 1)])
-    _bulk_fill(store, random.Random(1), 1, cases, n_devices)
+    fill_bench_shop(store, cases)
     with store.engine.begin() as connection:
         connection.exec_driver_sql("ANALYZE")
     return store

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from datetime import date
 
-from PySide6.QtCore import QDate, Qt, QTimer, Signal
+from PySide6.QtCore import QDate, QTimer, Signal
 from PySide6.QtWidgets import (QComboBox, QDateEdit, QFormLayout, QLineEdit, QPushButton,
                                QVBoxLayout, QWidget)
 
