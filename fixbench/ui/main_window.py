@@ -137,6 +137,9 @@ def open_context(db: str | None) -> AppContext:
 def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None) -> int:
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("fixbench")
+    from fixbench.ui.workers import collect_garbage_on_gui_thread
+
+    collect_garbage_on_gui_thread(app)
     window = MainWindow()
     window.show()
     if on_shown is not None:
