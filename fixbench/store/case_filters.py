@@ -11,7 +11,6 @@ takes as its period, so every owner figure can be drawn for exactly the cases of
 
 from __future__ import annotations
 
-import csv
 from dataclasses import asdict, dataclass, fields, replace
 from datetime import date, datetime, time, timedelta
 from typing import TextIO
@@ -19,11 +18,11 @@ from typing import TextIO
 from sqlalchemy import and_, func, or_, select, true
 from sqlalchemy.sql.elements import ColumnElement
 
-from fixbench.store.case_list import CaseRow
+from fixbench.store.case_list import CaseRow, rows_of_page
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.export import CSV_COLUMNS, _cell
-from fixbench.store.models import Case, Device, Reading, RepairAction, Technician
+from fixbench.store.export import write_cases_csv
+from fixbench.store.models import Case, Device, Technician
 from fixbench.store.owner import require_owner
 
 PAGE_SIZE = 200
@@ -151,16 +150,7 @@ def filtered_page(store: Store, case_filter: CaseFilter, sort: str = "opened",
     if sort == "device":
         ids = ids.join(Device, Device.id == Case.device_id)
     # Page the ids alone first, then join the names for that one page of rows.
-    page = ids.order_by(*order).offset(offset).limit(limit).subquery()
-    query = (select(Case.id, Case.ticket_ref, Case.opened_at, Case.closed_at, Case.status,
-                    Case.outcome, Case.family_id, Technician.name, Device.make, Device.model,
-                    Case.bench_minutes, Case.confirmed_fault)
-             .join(page, page.c.id == Case.id)
-             .join(Technician, Technician.id == Case.technician_id)
-             .join(Device, Device.id == Case.device_id)
-             .order_by(*order))
-    with store.read_connection() as connection:
-        return [CaseRow(*row) for row in connection.execute(query)]
+    return rows_of_page(store, ids.order_by(*order).offset(offset).limit(limit), order)
 
 
 @dataclass(frozen=True)
@@ -208,27 +198,8 @@ def export_filtered_csv(store: Store, case_filter: CaseFilter, out: TextIO, *,
     if sort not in SORT_KEYS:
         raise StoreInputError(f"cannot sort by {sort}; choose from {', '.join(SORT_KEYS)}")
     keys = [*SORT_KEYS[sort], Case.id]
-    cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
-            .where(RepairAction.case_id == Case.id).scalar_subquery())
-    readings = select(func.count()).where(Reading.case_id == Case.id).scalar_subquery()
-    query = (select(Case.ticket_ref, Case.customer_ref, Case.opened_at, Case.closed_at,
-                    Case.status, Case.outcome, Case.family_id, Device.make, Device.model,
-                    Device.kind, Technician.name, Case.bench_minutes, Case.confirmed_fault,
-                    Case.confirmed_part, Case.confirmed_stage, Case.top_suspect_fault,
-                    cost, readings)
-             .join(Device, Device.id == Case.device_id)
-             .join(Technician, Technician.id == Case.technician_id)
-             .where(case_filter.where())
-             .order_by(*(k.desc() if descending else k.asc() for k in keys)))
-    writer = csv.writer(out)
-    writer.writerow(CSV_COLUMNS)
-    count = 0
-    with store.read_connection() as connection:
-        for row in connection.execution_options(yield_per=1000).execute(query):
-            *head, cents, n_readings = row
-            writer.writerow([_cell(v) for v in head] + [f"{cents / 100:.2f}", n_readings])
-            count += 1
-    return count
+    return write_cases_csv(store, out, where=case_filter.where(),
+                           order=[k.desc() if descending else k.asc() for k in keys])
 
 
 def opened_span(store: Store) -> tuple[datetime | None, datetime | None]:

@@ -57,7 +57,13 @@ def case_page(store: Store, sort: str = "opened", descending: bool = True, offse
     key = SORTABLE[sort]
     order = [key.desc(), Case.id.desc()] if descending else [key.asc(), Case.id.asc()]
     # Page the ids alone first (an index walk), then join names for those 200 rows only.
-    page = select(Case.id).order_by(*order).offset(offset).limit(limit).subquery()
+    return rows_of_page(store, select(Case.id).order_by(*order).offset(offset).limit(limit), order)
+
+
+def rows_of_page(store: Store, page_ids, order) -> list[CaseRow]:
+    """The rows of one page, given the query that picks the page's case ids: the ids are paged
+    alone (an index walk), and names are joined for those rows only."""
+    page = page_ids.subquery()
     query = (select(Case.id, Case.ticket_ref, Case.opened_at, Case.closed_at, Case.status,
                     Case.outcome, Case.family_id, Technician.name, Device.make, Device.model,
                     Case.bench_minutes, Case.confirmed_fault)

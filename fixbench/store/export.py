@@ -16,7 +16,7 @@ import json
 from datetime import datetime
 from typing import Any, TextIO
 
-from sqlalchemy import func, select
+from sqlalchemy import and_, func, select
 
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
@@ -47,6 +47,13 @@ def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datet
     require_owner(store, passphrase)
     if until <= since:
         raise StoreInputError("the end of the period must come after its start")
+    return write_cases_csv(store, out, where=and_(Case.opened_at >= since, Case.opened_at < until),
+                           order=(Case.opened_at.asc(), Case.id.asc()))
+
+
+def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
+    """The one CSV writer of cases: the cases matching ``where`` in ``order``, with their parts
+    cost and reading count. Callers check the owner's passphrase first."""
     cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
             .where(RepairAction.case_id == Case.id).scalar_subquery())
     # Readings taken back with undo are kept in the record but do not count as readings.
@@ -60,8 +67,8 @@ def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datet
                     cost, readings)
              .join(Device, Device.id == Case.device_id)
              .join(Technician, Technician.id == Case.technician_id)
-             .where(Case.opened_at >= since, Case.opened_at < until)
-             .order_by(Case.opened_at, Case.id))
+             .where(where)
+             .order_by(*order))
     writer = csv.writer(out)
     writer.writerow(CSV_COLUMNS)
     count = 0
