@@ -17,6 +17,7 @@ primer, section 6]; healthy figures come from :mod:`fixbench.physics.healthy`.
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from functools import lru_cache
 
 from fixbench.knowledge.graph import power_order
 from fixbench.knowledge.model import Family
@@ -301,26 +302,32 @@ def _state(w: _Work) -> str:
     return "running_regulated"
 
 
-# Stage role -> what it computes. Feedback runs first (control); the rest in power order.
+# Stage role -> what it computes, in causal order. Feedback runs first (a control stage); these
+# follow in the order power reaches their stages, which every family must agree with.
 STAGE_STEPS = {
     "input": _input, "rectifier": _rectifier, "bulk": _bulk, "startup": _startup_and_drive,
     "switch": _switch_and_transfer, "output_filter": _output,
 }
 
 
+@lru_cache(maxsize=None)
+def stage_steps(family: Family) -> tuple:
+    """The family's stages in power order, as the steps above. A family whose graph lacks one of
+    these stages, or orders them otherwise, cannot be run: that is said once, loudly."""
+    roles = [role for role in dict.fromkeys(family.stage(s).role for s in power_order(family))
+             if role in STAGE_STEPS]
+    if roles != list(STAGE_STEPS):
+        raise ValueError(f"{family.source_file}: the operating model needs stages with roles "
+                         f"{', '.join(STAGE_STEPS)} in that power order; the family gives {', '.join(roles)}")
+    return tuple(STAGE_STEPS[role] for role in roles)
+
+
 def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[str, str]) -> Operation:
     """Run the unit with parts in ``modes`` (part id -> mode; missing means healthy) on plain mains."""
     w = _Work(family, ratings, healthy, modes)
     _feedback(w)
-    roles_in_order = [family.stage(s).role for s in power_order(family)]
-    done = set()
-    for role in roles_in_order + ["startup", "switch", "output_filter"]:
-        step = STAGE_STEPS.get(role)
-        if step is not None and role not in done:
-            if role in ("startup", "switch", "output_filter") and "mains_ok" not in w.flags:
-                continue
-            step(w)
-            done.add(role)
+    for step in stage_steps(family):
+        step(w)
     _control_signals(w)
     state = _state(w)
     outcomes = _symptoms(w, state)

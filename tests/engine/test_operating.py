@@ -158,3 +158,17 @@ def test_unit_without_fault_runs_regulated_with_a_dim_lamp(run):
     assert operation.state == "running_regulated"
     assert operation.outcomes["lamp"] == {"dim": 1.0}  # dim on a healthy unit [practice; trade primer section 5]
     assert operation.hiccup is None and not operation.fuse_blows
+
+
+def test_a_family_whose_stages_the_model_cannot_run_is_refused_by_name():
+    from dataclasses import replace as dc_replace
+
+    from fixbench.engine.operating import stage_steps
+    from fixbench.knowledge import load_knowledge
+
+    family = load_knowledge().family("pwm_flyback")
+    no_bulk = dc_replace(family, stages=tuple(dc_replace(s, role="clamp") if s.role == "bulk" else s
+                                              for s in family.stages))
+    with pytest.raises(ValueError, match="pwm_flyback.toml: the operating model needs stages"):
+        stage_steps(no_bulk)
+    assert len(stage_steps(family)) == 6
