@@ -27,6 +27,7 @@ import numpy as np
 
 from fixbench.engine.fault_model import FaultModel
 from fixbench.engine.inference import information_about_root, root_posterior
+from fixbench.engine.inference import posterior as posterior_of
 
 SHORT_THRESHOLD = 0.02  # posterior of a primary short above which plain mains is not proposed
 CLEAR_ROOT = 0.95  # a root fault (or group) this likely ends the search
@@ -85,8 +86,6 @@ def finished(model: FaultModel, posterior: np.ndarray) -> bool:
 
 def fragile_readings(model: FaultModel, posterior: np.ndarray, evidence: tuple[tuple[int, int], ...]) -> list[int]:
     """Check indices whose single reading the leading fault depends on."""
-    from fixbench.engine.inference import posterior as posterior_of
-
     group, _ = group_chances(model, posterior)[0]
     fragile = []
     for j, (check_index, _) in enumerate(evidence):
