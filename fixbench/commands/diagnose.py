@@ -7,12 +7,12 @@ from __future__ import annotations
 import json
 from pathlib import Path
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 from fixbench.commands._output import print_json
 from fixbench.commands._unit import family_and_ratings
 from fixbench.engine import start_diagnosis
-from fixbench.engine.report import state_as_dict
-from fixbench.quantities import ReadingError
+from fixbench.engine.replay import replay_readings
+from fixbench.engine.report import state_as_dict, state_text
 
 HELP = "rank the likely faults of a case file and propose the next check"
 
@@ -44,28 +44,28 @@ def load_case(path_text: str) -> dict:
 
 
 def replay(case: dict, source: str = "case"):
+    """The case file's readings taken in order; the first one this build cannot take is an error
+    naming its place in the file."""
     family, ratings = family_and_ratings(case["family"], case["ratings"])
-    state = start_diagnosis(family, ratings)
-    for i, item in enumerate(case.get("readings", [])):
+    readings = case.get("readings", [])
+    for i, item in enumerate(readings):
         if not isinstance(item, dict) or "check" not in item or "value" not in item:
             raise UsageError(f"{source}: readings[{i}] needs 'check' and 'value'")
-        if not family.has_check(str(item["check"])):
-            raise UsageError(f"{source}: readings[{i}]: unknown check '{item['check']}' for family '{family.id}'")
-        try:
-            state = state.with_reading(str(item["check"]), str(item["value"]))
-        except ReadingError as err:
-            raise UsageError(f"{source}: readings[{i}] ({item['check']}): {err}") from None
-    return state
+    replayed = replay_readings(start_diagnosis(family, ratings),
+                               ((str(item["check"]), str(item["value"])) for item in readings))
+    if replayed.refused:
+        first = replayed.refused[0]
+        where = (f"readings[{first.index}]" if first.unknown_check
+                 else f"readings[{first.index}] ({first.check_id})")
+        raise UsageError(f"{source}: {where}: {first.reason}")
+    return replayed.state
 
 
 def run(args) -> int:
     case = load_case(args.case)
     state = replay(case, args.case)
-    result = state_as_dict(state)
     if args.json:
-        print_json(result)
+        print_json(state_as_dict(state))
         return 0
-    from fixbench.engine.report import print_state
-
-    print_state(state)
+    print(state_text(state))
     return 0

@@ -1,9 +1,11 @@
-"""A diagnosis state as plain data (for `--json`, the store and case export) and as text."""
+"""A diagnosis state as plain data (for `--json`, the store and case export) and as text lines.
+
+Both are returned, never printed: the command that asked for them writes them out."""
 
 from __future__ import annotations
 
 from fixbench.engine.conclusion import Conclusion
-from fixbench.engine.session import DiagnosisState, Proposal
+from fixbench.engine.diagnosis import DiagnosisState, Proposal
 from fixbench.physics.expectation import Expectation
 
 
@@ -53,30 +55,34 @@ def state_as_dict(state: DiagnosisState) -> dict:
     }
 
 
-def print_state(state: DiagnosisState) -> None:
-    print("Likely faults:")
+def state_text(state: DiagnosisState) -> str:
+    """The state as a person reads it at the terminal: suspects, next check, conclusion."""
+    lines: list[str] = []
+    say = lines.append
+    say("Likely faults:")
     for s in state.suspects[:8]:
         where = f" ({s.part}, {state.family.stage(s.stage).title})" if s.part else ""
         together = f"  [cannot be told from: {', '.join(g for g in s.group if g != s.fault)}]" if len(s.group) > 1 else ""
-        print(f"  {s.probability:6.1%}  {s.title}{where}{together}")
+        say(f"  {s.probability:6.1%}  {s.title}{where}{together}")
     p = state.next_check
     if p is not None:
-        print(f"\nNext: {p.title}  [{p.power}, {p.check.instrument.replace('_', ' ')}, {p.minutes:g} min, hazard {p.hazard}]")
-        print(f"  between: {', '.join(state.family.test_point(t).title for t in p.check.points) or '-'}")
+        say(f"\nNext: {p.title}  [{p.power}, {p.check.instrument.replace('_', ' ')}, {p.minutes:g} min, hazard {p.hazard}]")
+        say(f"  between: {', '.join(state.family.test_point(t).title for t in p.check.points) or '-'}")
         expected = p.expected.describe() if p.expected else p.expected_outcome
-        print(f"  a healthy unit shows: {expected}")
-        print(f"  how: {p.check.how}")
+        say(f"  a healthy unit shows: {expected}")
+        say(f"  how: {p.check.how}")
         for caution in p.cautions:
-            print(f"  CAUTION: {caution}")
+            say(f"  CAUTION: {caution}")
     c = state.conclusion
     if c is not None:
-        print(f"\nConclusion ({c.probability:.0%}{'' if c.certain else ', not certain'}): {', '.join(c.faults)}")
+        say(f"\nConclusion ({c.probability:.0%}{'' if c.certain else ', not certain'}): {', '.join(c.faults)}")
         for a in c.replace:
-            print(f"  replace {a.part} {a.title} ({a.mode})")
+            say(f"  replace {a.part} {a.title} ({a.mode})")
         for a in c.test_before_power:
-            print(f"  test before power-up: {a.part} {a.title} ({a.probability:.0%} likely {a.mode})")
+            say(f"  test before power-up: {a.part} {a.title} ({a.probability:.0%} likely {a.mode})")
         for v in c.verify:
             shown = v.expected.describe() if v.expected else v.outcome
-            print(f"  verify: {v.title}: {shown}")
+            say(f"  verify: {v.title}: {shown}")
         for s in c.repair_order:
-            print(f"  try in this order: {s.fault} ({s.probability:.0%}, {s.cost:g} min)")
+            say(f"  try in this order: {s.fault} ({s.probability:.0%}, {s.cost:g} min)")
+    return "\n".join(lines)

@@ -10,7 +10,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from fixbench.engine.session import start_diagnosis
+from fixbench.engine.diagnosis import start_diagnosis
+from fixbench.engine.follow import follow_planner
 from fixbench.knowledge.model import Family
 from fixbench.practice.scenario import Scenario
 from fixbench.practice.unit import HiddenUnit
@@ -37,15 +38,10 @@ class EnginePath:
 
 def engine_path(family: Family, scenario: Scenario) -> EnginePath:
     unit = HiddenUnit(family, scenario)
-    state = start_diagnosis(family, scenario.parsed_ratings())
-    steps: list[EngineStep] = []
-    while len(steps) < MAX_STEPS:
-        proposal = state.next_check
-        if proposal is None:
-            break
-        answer = unit.measure(proposal.check.id)
-        state = state.with_reading(proposal.check.id, answer.text)
-        steps.append(EngineStep(proposal.check.id, proposal.title, answer.text, proposal.minutes, proposal.reason))
-    conclusion = state.final_conclusion()
-    return EnginePath(tuple(steps), sum(s.minutes for s in steps), state.suspects[0].fault,
+    path = follow_planner(start_diagnosis(family, scenario.parsed_ratings()),
+                          lambda check_id: unit.measure(check_id).text, MAX_STEPS)
+    steps = tuple(EngineStep(step.proposal.check.id, step.proposal.title, step.typed,
+                             step.proposal.minutes, step.proposal.reason) for step in path.steps)
+    conclusion = path.final.final_conclusion()
+    return EnginePath(steps, sum(s.minutes for s in steps), path.final.suspects[0].fault,
                       frozenset(a.part for a in conclusion.replace))

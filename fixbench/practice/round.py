@@ -11,7 +11,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from fixbench.engine.inference import entropy_bits, information_about_root, root_posterior
-from fixbench.engine.session import DiagnosisState, Suspect, start_diagnosis
+from fixbench.engine.diagnosis import DiagnosisState, Suspect, start_diagnosis
 from fixbench.knowledge.model import Check, Family
 from fixbench.practice.safety import Slip, slip_before
 from fixbench.practice.scenario import Scenario

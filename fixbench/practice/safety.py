@@ -16,7 +16,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from fixbench.engine import cautions, planner
-from fixbench.engine.session import DiagnosisState
+from fixbench.engine.diagnosis import DiagnosisState
 from fixbench.knowledge.model import Check
 
 MAINS_ON_SHORT = "mains_on_short"

@@ -27,7 +27,7 @@ def test_reduced_model_has_the_documented_size(comparison, family):
 
 
 def test_optimum_is_a_lower_bound_on_every_family(knowledge):
-    from fixbench.engine.benchmark import BENCH_RATINGS, DEFAULT_RATINGS
+    from fixbench.benchmarks.engine_figures import BENCH_RATINGS, DEFAULT_RATINGS
     from fixbench.physics.ratings import parse_ratings
 
     for family in knowledge.families.values():

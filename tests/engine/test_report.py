@@ -3,7 +3,7 @@
 import json
 
 from fixbench.engine import start_diagnosis
-from fixbench.engine.report import print_state, state_as_dict
+from fixbench.engine.report import state_as_dict, state_text
 from fixbench.knowledge import load_knowledge
 from fixbench.physics.ratings import parse_ratings
 
@@ -22,8 +22,7 @@ def test_state_as_dict_is_json_ready_and_ranked():
     assert data["next_check"]["check"]
 
 
-def test_text_view_shows_the_next_step_with_its_healthy_value(capsys):
+def test_text_view_shows_the_next_step_with_its_healthy_value():
     state = _state().with_reading("symptom_dead", "yes").with_reading("look_fuse", "no")
-    print_state(state)
-    out = capsys.readouterr().out
+    out = state_text(state)
     assert "Likely faults:" in out and "Next: " in out and "a healthy unit shows:" in out

@@ -43,7 +43,7 @@ def test_exact_readings_fall_in_the_class_the_model_predicts(family, ratings, mo
     unit = simulated_unit(family, ratings, root, 5, exact=True)
     hypothesis = next(i for i, h in enumerate(model.hypotheses) if dict(h.modes) == unit.modes)
     readings = simulate_readings(family, ratings, root, seed=5, noise=False)
-    for i, check_model in enumerate(model.checks):
+    for check_model in model.checks:
         outcome = read(check_model, readings[check_model.check.id]).outcome
         k = check_model.classes.names.index(outcome)
         assert check_model.predicted[hypothesis, k] > 0.5, (root, check_model.check.id, outcome)

@@ -11,7 +11,7 @@ from __future__ import annotations
 from PySide6.QtCore import Signal
 from PySide6.QtWidgets import QVBoxLayout, QWidget
 
-from fixbench.engine.session import DiagnosisState
+from fixbench.engine.diagnosis import DiagnosisState
 from fixbench.quantities import format_band
 from fixbench.ui.bench.step_card import StepCard
 
