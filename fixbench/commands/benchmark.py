@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 from fixbench.commands._output import print_json
 
 HELP = "measure the engine, the store or the user interface and print the figures"
@@ -18,7 +18,7 @@ def add_arguments(parser) -> None:
 
 def run(args) -> int:
     if args.part == "engine":
-        from fixbench.engine.benchmark import print_report, run_benchmark
+        from fixbench.benchmarks.engine_figures import print_report, run_benchmark
 
         if args.units < 1:
             raise UsageError("--units must be at least 1")
@@ -26,12 +26,12 @@ def run(args) -> int:
         print_json(result) if args.json else print_report(result)
         return 0
     if args.part == "store":
-        from fixbench.store.benchmark import print_store_report, run_store_benchmark
+        from fixbench.benchmarks.store_scale import print_store_report, run_store_benchmark
 
         result = run_store_benchmark(cases=args.cases, seed=args.seed)
         print_json(result) if args.json else print_store_report(result)
         return 0
-    from fixbench.ui.benchmark import print_ui_report, run_ui_benchmark
+    from fixbench.benchmarks.window_speed import print_ui_report, run_ui_benchmark
 
     result = run_ui_benchmark(cases=args.cases)
     print_json(result) if args.json else print_ui_report(result)

@@ -4,13 +4,13 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 
 HELP = "build the demo shop database (fictional shop, about two years of cases) at PATH"
 
 
 def add_arguments(parser) -> None:
-    from fixbench.store.demo_plan import SHOP_DAYS
+    from fixbench.demo.plan import SHOP_DAYS
 
     parser.add_argument("path", help="the SQLite file to create (must not exist)")
     parser.add_argument("--seed", type=int, default=1, help="which demo history (default 1)")
@@ -21,7 +21,7 @@ def add_arguments(parser) -> None:
 def run(args) -> int:
     from fixbench.store.backup import copy_database
     from fixbench.store.database import open_store
-    from fixbench.store.demo_shop import build_demo_shop
+    from fixbench.demo.shop import build_demo_shop
     from fixbench.store.digest import content_digest
 
     path = Path(args.path)

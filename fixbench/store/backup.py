@@ -19,39 +19,22 @@ from datetime import UTC, datetime, timedelta
 from pathlib import Path
 
 from fixbench.store.errors import StoreError, StoreFileError
-from fixbench.store.location import backup_folder
+from fixbench.store.health import check_sqlite_file
+from fixbench.store.location import BACKUP_SUFFIX, backup_folder, list_backups, newest_backup
 
 KEEP_BACKUPS = 14
-SUFFIX = ".sqlite"
 BUSY_TIMEOUT_S = 30.0
-
-
-def list_backups(database: Path) -> list[Path]:
-    """Backups of ``database``, oldest first (their names sort by time)."""
-    folder = backup_folder(database)
-    if not folder.is_dir():
-        return []
-    prefix = f"{database.stem}-"
-    return sorted(p for p in folder.iterdir()
-                  if p.name.startswith(prefix) and p.name.endswith(SUFFIX))
-
-
-def newest_backup(database: Path) -> Path | None:
-    backups = list_backups(database)
-    return backups[-1] if backups else None
 
 
 def backup_database(database: Path, keep: int = KEEP_BACKUPS) -> Path:
     """Write a consistent copy of ``database`` beside it and keep only the newest ``keep``."""
-    from fixbench.store.health import check_sqlite_file
-
     if not database.exists():
         raise StoreError(f"{database} does not exist; there is nothing to back up")
     check_sqlite_file(database)
     folder = backup_folder(database)
     folder.mkdir(parents=True, exist_ok=True)
     stamp = datetime.now(UTC).strftime("%Y%m%d-%H%M%S-%f")
-    target = folder / f"{database.stem}-{stamp}{SUFFIX}"
+    target = folder / f"{database.stem}-{stamp}{BACKUP_SUFFIX}"
     copy_database(database, target)
     for old in list_backups(database)[:-keep] if keep > 0 else []:
         old.unlink()
@@ -104,8 +87,6 @@ class Restored:
 
 def restore_backup(backup: Path, database: Path) -> Restored:
     """Make ``database`` a copy of ``backup`` without destroying what was there."""
-    from fixbench.store.health import check_sqlite_file
-
     if not backup.is_file():
         raise StoreError(f"{backup} does not exist")
     check_sqlite_file(backup)

@@ -22,8 +22,8 @@ from sqlalchemy.orm import Session
 from fixbench.store.cases import utc_now
 from fixbench.store.database import Store
 from fixbench.store.errors import ClosedCaseError, StoreInputError, checked_text
-from fixbench.store.models import (Case, CautionAcknowledgement, Device, Reading, RepairAction,
-                                   ShopSetting, SkippedCheck, Suspect, Technician, Verification,
+from fixbench.store.models import (Case, CautionAcknowledgement, Device, ReadingRow, RepairAction,
+                                   ShopSetting, SkippedCheck, SuspectRow, Technician, Verification,
                                    WithdrawnReading)
 
 SETTING_KEY_MAX = 64
@@ -84,8 +84,8 @@ def skip_check(store: Store, case_id: int, check_id: str, at: datetime | None = 
 
 def _standing_readings(case_id: int):
     withdrawn = select(WithdrawnReading.reading_id)
-    return (select(Reading).where(Reading.case_id == case_id, Reading.id.not_in(withdrawn))
-            .order_by(Reading.seq))
+    return (select(ReadingRow).where(ReadingRow.case_id == case_id, ReadingRow.id.not_in(withdrawn))
+            .order_by(ReadingRow.seq))
 
 
 def withdraw_last_reading(store: Store, case_id: int, at: datetime | None = None) -> int | None:
@@ -100,8 +100,8 @@ def withdraw_last_reading(store: Store, case_id: int, at: datetime | None = None
         before = standing[-2] if len(standing) > 1 else None
         top = None
         if before is not None:
-            top = session.scalar(select(Suspect.fault_id)
-                                 .where(Suspect.reading_id == before.id, Suspect.rank == 1))
+            top = session.scalar(select(SuspectRow.fault_id)
+                                 .where(SuspectRow.reading_id == before.id, SuspectRow.rank == 1))
         case.top_suspect_fault = top
         return last.id
 
@@ -203,7 +203,7 @@ def open_case_count(store: Store) -> int:
 
 def open_cases(store: Store, offset: int = 0, limit: int = 200) -> list[OpenCaseRow]:
     """Cases not yet closed, newest first (an index walk on status, then the page's names)."""
-    counts = (select(Reading.case_id, func.count().label("n")).group_by(Reading.case_id)
+    counts = (select(ReadingRow.case_id, func.count().label("n")).group_by(ReadingRow.case_id)
               .subquery())
     query = (select(Case.id, Case.ticket_ref, Device.make, Device.model, Case.family_id,
                     Case.status, Technician.name, Case.opened_at, func.coalesce(counts.c.n, 0))

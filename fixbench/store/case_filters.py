@@ -5,7 +5,7 @@ and model, confirmed fault or part, outcome and free text. The table is paged an
 database (ORDER BY ... LIMIT/OFFSET, ties broken on case id so pages never overlap) and its count
 is the same WHERE clause counted, so the number shown always matches the rows that can be scrolled.
 
-``CaseFilter.closed()`` gives an object with the ``where()`` that :mod:`fixbench.store.figures`
+``CaseFilter.closed()`` gives an object with the ``where()`` that :mod:`fixbench.store.owner_figures`
 takes as its period, so every owner figure can be drawn for exactly the cases of a filter.
 """
 
@@ -101,7 +101,7 @@ class CaseFilter:
 
 @dataclass(frozen=True)
 class ClosedCases:
-    """The closed cases of a filter, in the shape :mod:`fixbench.store.figures` takes as a period."""
+    """The closed cases of a filter, in the shape :mod:`fixbench.store.owner_figures` takes as a period."""
 
     case_filter: CaseFilter
 

@@ -21,7 +21,7 @@ from sqlalchemy.orm import Session
 from fixbench.store.case_flags import refresh_comebacks
 from fixbench.store.database import Store
 from fixbench.store.errors import ClosedCaseError, StoreInputError, checked_text
-from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, Reading, RepairAction, Suspect,
+from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, ReadingRow, RepairAction, SuspectRow,
                                    Verification)
 
 # status -> statuses it may move to (besides "closed", which close_case does).
@@ -95,15 +95,15 @@ def add_reading(store: Store, case_id: int, *, check_id: str, typed: str, value:
     """Keep one reading (as typed and as parsed) with the suspects ranked after it."""
     with store.session() as session:
         case = _open_case(session, case_id)
-        last = session.scalar(select(func.max(Reading.seq)).where(Reading.case_id == case_id))
-        reading = Reading(case_id=case_id, seq=(last or 0) + 1,
+        last = session.scalar(select(func.max(ReadingRow.seq)).where(ReadingRow.case_id == case_id))
+        reading = ReadingRow(case_id=case_id, seq=(last or 0) + 1,
                           check_id=checked_text(check_id, "check"),
                           typed=checked_text(typed, "reading"), value=value,
                           unit=None if unit is None else checked_text(unit, "unit"),
                           outcome=None if outcome is None else checked_text(outcome, "outcome"),
                           entered_at=entered_at or utc_now())
         reading.suspects = [
-            Suspect(rank=rank, fault_id=checked_text(s.fault_id, "fault"), part_id=s.part_id,
+            SuspectRow(rank=rank, fault_id=checked_text(s.fault_id, "fault"), part_id=s.part_id,
                     stage_id=s.stage_id, probability=s.probability)
             for rank, s in enumerate(suspects, start=1)]
         session.add(reading)

@@ -24,7 +24,8 @@ from sqlalchemy.exc import DatabaseError, OperationalError
 from sqlalchemy.orm import Session, sessionmaker
 
 from fixbench.store.errors import StoreFileError
-from fixbench.store.location import resolve_url, sqlite_path
+from fixbench.store.health import check_sqlite_file
+from fixbench.store.location import newest_backup, resolve_url, sqlite_path
 
 BUSY_TIMEOUT_MS = 30_000
 READ_ONLY_OPTION = "fixbench_read_only"
@@ -74,13 +75,12 @@ def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True) -
     url = resolve_url(url_or_path)
     path = sqlite_path(url)
     if path is not None:
-        from fixbench.store.health import check_sqlite_file
-
         check_sqlite_file(path)
         path.parent.mkdir(parents=True, exist_ok=True)
     engine = _make_engine(url)
     store = Store(engine=engine, sessions=sessionmaker(engine, expire_on_commit=False), path=path)
     if migrate:
+        # alembic is imported only when a store is opened, not by everything that names a Store.
         from fixbench.store.migrate import upgrade_to_head
 
         try:
@@ -88,8 +88,6 @@ def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True) -
         except (DatabaseError, OperationalError) as err:
             engine.dispose()
             if path is not None and _is_damage(err):
-                from fixbench.store.backup import newest_backup
-
                 raise StoreFileError(path, "is damaged", newest_backup(path)) from err
             raise
     return store

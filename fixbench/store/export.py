@@ -20,7 +20,7 @@ from sqlalchemy import and_, func, select
 
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import (Case, Device, Reading, RepairAction, Technician, Verification,
+from fixbench.store.models import (Case, Device, ReadingRow, RepairAction, Technician, Verification,
                                    WithdrawnReading)
 from fixbench.store.owner import require_owner
 
@@ -57,8 +57,8 @@ def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
     cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
             .where(RepairAction.case_id == Case.id).scalar_subquery())
     # Readings taken back with undo are kept in the record but do not count as readings.
-    readings = (select(func.count()).where(Reading.case_id == Case.id,
-                                           Reading.id.not_in(select(WithdrawnReading.reading_id)))
+    readings = (select(func.count()).where(ReadingRow.case_id == Case.id,
+                                           ReadingRow.id.not_in(select(WithdrawnReading.reading_id)))
                 .scalar_subquery())
     query = (select(Case.ticket_ref, Case.customer_ref, Case.opened_at, Case.closed_at,
                     Case.status, Case.outcome, Case.family_id, Device.make, Device.model,
@@ -94,8 +94,8 @@ def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
         checks = session.scalars(select(Verification).where(Verification.case_id == case.id)
                                  .order_by(Verification.id))
         withdrawn = set(session.scalars(select(WithdrawnReading.reading_id)
-                                        .join(Reading, Reading.id == WithdrawnReading.reading_id)
-                                        .where(Reading.case_id == case.id)))
+                                        .join(ReadingRow, ReadingRow.id == WithdrawnReading.reading_id)
+                                        .where(ReadingRow.case_id == case.id)))
         standing = [r for r in case.readings if r.id not in withdrawn]
         return {
             "format": CASE_JSON_FORMAT,

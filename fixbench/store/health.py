@@ -12,6 +12,7 @@ import sqlite3
 from pathlib import Path
 
 from fixbench.store.errors import StoreFileError
+from fixbench.store.location import newest_backup
 
 SQLITE_MAGIC = b"SQLite format 3\x00"
 HEADER_BYTES = 100
@@ -26,8 +27,6 @@ def check_sqlite_file(path: Path) -> None:
     if problem is None:
         problem = _schema_problem(path)
     if problem is not None:
-        from fixbench.store.backup import newest_backup
-
         raise StoreFileError(path, problem, newest_backup(path))
 
 

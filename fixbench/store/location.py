@@ -21,6 +21,7 @@ APP_NAME = "fixbench"
 ENV_VAR = "FIXBENCH_DB"
 DEFAULT_FILE_NAME = "fixbench.sqlite"
 BACKUP_FOLDER_SUFFIX = "-backups"
+BACKUP_SUFFIX = ".sqlite"
 DEMO_FILE_NAME = "fixbench-demo.sqlite"
 PACKAGE_DIR = Path(__file__).resolve().parent.parent
 
@@ -62,6 +63,21 @@ def sqlite_path(url: str) -> Path | None:
 def backup_folder(database: Path) -> Path:
     """Where rolling backups of a SQLite database file go: a folder beside it, named after it."""
     return database.parent / f"{database.stem}{BACKUP_FOLDER_SUFFIX}"
+
+
+def list_backups(database: Path) -> list[Path]:
+    """Backups of ``database``, oldest first (their names sort by time)."""
+    folder = backup_folder(database)
+    if not folder.is_dir():
+        return []
+    prefix = f"{database.stem}-"
+    return sorted(p for p in folder.iterdir()
+                  if p.name.startswith(prefix) and p.name.endswith(BACKUP_SUFFIX))
+
+
+def newest_backup(database: Path) -> Path | None:
+    backups = list_backups(database)
+    return backups[-1] if backups else None
 
 
 def demo_database_path() -> Path | None:

@@ -83,8 +83,8 @@ class Case(Base):
 
     device: Mapped[Device] = relationship()
     technician: Mapped[Technician] = relationship()
-    readings: Mapped[list[Reading]] = relationship(
-        back_populates="case", order_by="Reading.seq", cascade="all, delete-orphan",
+    readings: Mapped[list[ReadingRow]] = relationship(
+        back_populates="case", order_by="ReadingRow.seq", cascade="all, delete-orphan",
         passive_deletes=True)
 
     __table_args__ = (
@@ -112,7 +112,7 @@ class Case(Base):
     )
 
 
-class Reading(Base):
+class ReadingRow(Base):
     """One check as the technician typed it and as it was parsed (value in SI units)."""
 
     __tablename__ = "readings"
@@ -127,13 +127,13 @@ class Reading(Base):
     entered_at: Mapped[datetime] = mapped_column(DateTime)
 
     case: Mapped[Case] = relationship(back_populates="readings")
-    suspects: Mapped[list[Suspect]] = relationship(
-        order_by="Suspect.rank", cascade="all, delete-orphan", passive_deletes=True)
+    suspects: Mapped[list[SuspectRow]] = relationship(
+        order_by="SuspectRow.rank", cascade="all, delete-orphan", passive_deletes=True)
 
     __table_args__ = (UniqueConstraint("case_id", "seq", name="uq_readings_case_seq"),)
 
 
-class Suspect(Base):
+class SuspectRow(Base):
     """The engine's ranked suspects right after a reading (rank 1 is its first suspect)."""
 
     __tablename__ = "suspects"

@@ -8,7 +8,7 @@ from sqlalchemy import func, select
 from fixbench.store.amendments import (amend_closed_case, amendments_of, delete_case,
                                        original_value)
 from fixbench.store.errors import OwnerRequired, StoreInputError
-from fixbench.store.models import Case, Reading, Suspect
+from fixbench.store.models import Case, ReadingRow, SuspectRow
 from fixbench.store.owner import set_owner_passphrase
 from tests.store.conftest import START, record_case
 
@@ -65,5 +65,5 @@ def test_deleting_a_case_needs_the_owner_and_removes_its_records(bench):
     delete_case(store, gone, passphrase=PASS)
     with store.session() as session:
         assert session.scalars(select(Case.id)).all() == [keep]
-        assert session.scalar(select(func.count()).select_from(Reading)) == 1
-        assert session.scalar(select(func.count()).select_from(Suspect)) == 2
+        assert session.scalar(select(func.count()).select_from(ReadingRow)) == 1
+        assert session.scalar(select(func.count()).select_from(SuspectRow)) == 2

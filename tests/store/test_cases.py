@@ -12,7 +12,7 @@ from sqlalchemy import func, select
 from fixbench.store.cases import (RankedSuspect, add_reading, add_repair_action,
                                   add_verification, close_case, move_case, open_case)
 from fixbench.store.errors import ClosedCaseError, StoreInputError
-from fixbench.store.models import Case, Reading, RepairAction, Suspect
+from fixbench.store.models import Case, ReadingRow, RepairAction, SuspectRow
 from tests.store.conftest import RATINGS, START, record_case
 
 
@@ -73,7 +73,7 @@ def test_closed_case_refuses_new_readings_repairs_and_status_changes(bench):
     with pytest.raises(ClosedCaseError):
         close_case(store, case_id, outcome="no_fault_found", bench_minutes=1)
     with store.session() as session:
-        assert session.scalar(select(func.count()).select_from(Reading)) == 1
+        assert session.scalar(select(func.count()).select_from(ReadingRow)) == 1
 
 
 @pytest.mark.parametrize("line, says", [
@@ -136,7 +136,7 @@ def test_any_unicode_reading_text_round_trips(bench, typed, check, fault):
     reading_id = add_reading(store, case_id, check_id=check, typed=typed, value=None, unit=None,
                              outcome=None, suspects=[RankedSuspect(fault, 1.0)])
     with store.session() as session:
-        reading = session.get(Reading, reading_id)
+        reading = session.get(ReadingRow, reading_id)
         assert (reading.typed, reading.check_id) == (typed, check)
-        assert session.scalar(select(Suspect.fault_id).where(Suspect.reading_id == reading_id)) \
+        assert session.scalar(select(SuspectRow.fault_id).where(SuspectRow.reading_id == reading_id)) \
             == fault

@@ -12,7 +12,7 @@ from sqlalchemy import func, select
 
 from fixbench.store import open_store
 from fixbench.store.cases import open_case
-from fixbench.store.models import Reading
+from fixbench.store.models import ReadingRow
 from fixbench.store.people import add_device, add_technician
 from tests.store.conftest import RATINGS
 
@@ -73,10 +73,10 @@ def test_two_processes_writing_one_file_lose_nothing(tmp_path):
     assert [w.returncode for w in workers] == [0, 0], errors
     store = open_store(path)
     with store.session() as session:
-        seqs = session.scalars(select(Reading.seq).order_by(Reading.seq)).all()
+        seqs = session.scalars(select(ReadingRow.seq).order_by(ReadingRow.seq)).all()
         per_bench = dict(session.execute(
-            select(func.substr(Reading.check_id, 1, 7), func.count()).group_by(
-                func.substr(Reading.check_id, 1, 7))).all())
+            select(func.substr(ReadingRow.check_id, 1, 7), func.count()).group_by(
+                func.substr(ReadingRow.check_id, 1, 7))).all())
     assert seqs == list(range(1, 301))
     assert per_bench == {"bench-a": 150, "bench-b": 150}
 
@@ -109,7 +109,7 @@ def test_process_killed_mid_case_loses_no_committed_reading(tmp_path):
     writer.wait(timeout=30)
     store = open_store(path)
     with store.session() as session:
-        kept = set(session.scalars(select(Reading.check_id)))
+        kept = set(session.scalars(select(ReadingRow.check_id)))
     assert {f"r{i}" for i in reported} <= kept
 
 

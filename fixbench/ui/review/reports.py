@@ -20,7 +20,7 @@ from fixbench.store.case_filters import CaseFilter
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
 from fixbench.store.models import Case, RepairAction, Verification
-from fixbench.ui.review.figures_data import compute_figures, minutes_text, percent
+from fixbench.ui.review.figures_snapshot import compute_figures, minutes_text, percent
 from fixbench.ui.review.names import TradeNames, family_name, outcome_name
 from fixbench.ui.review.report_charts import BarsSpec, LinesSpec
 from fixbench.ui.review.report_pdf import ReportDocument

@@ -7,7 +7,7 @@ import pytest
 from PySide6.QtCore import Qt
 from sqlalchemy import func, select
 
-from fixbench.store.models import Case, Reading, RepairAction, Verification
+from fixbench.store.models import Case, ReadingRow, RepairAction, Verification
 from tests.ui.bench.conftest import (acknowledge, fill_intake, open_intake, settle, type_into,
                                      type_reading)
 
@@ -101,11 +101,11 @@ def test_reading_refused_beside_the_field_and_nothing_kept(qtbot, bench, store, 
     # Take a numeric check: the fuse (ohms) or, for the volts mistakes, the bulk discharge check.
     check = "bulk_discharged" if typed in ("9 MV", "3,3 V", "325 ohm") else "fuse_resistance"
     bench.controller.choose_check(check)
-    before = _count(store, Reading)
+    before = _count(store, ReadingRow)
     type_reading(qtbot, bench, typed)
     assert says in card.field.message_text
     assert card.field.text() == typed  # kept for correcting
-    assert _count(store, Reading) == before
+    assert _count(store, ReadingRow) == before
     assert bench.controller.current_check_id() == check
 
 

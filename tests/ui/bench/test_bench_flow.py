@@ -15,7 +15,7 @@ from fixbench.engine import simulate_readings
 from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.knowledge import load_knowledge
 from fixbench.physics.ratings import parse_ratings
-from fixbench.store.models import (Case, CautionAcknowledgement, Reading, RepairAction, SkippedCheck,
+from fixbench.store.models import (Case, CautionAcknowledgement, ReadingRow, RepairAction, SkippedCheck,
                                    Verification, WithdrawnReading)
 from tests.ui.bench.conftest import (acknowledge, fill_intake, open_intake, settle, shoot,
                                      type_into, type_reading)
@@ -82,7 +82,7 @@ def close_with(qtbot, bench, minutes: str) -> None:
 def _case(store, ticket):
     with store.session() as session:
         case = session.scalar(select(Case).where(Case.ticket_ref == ticket))
-        readings = session.scalars(select(Reading).where(Reading.case_id == case.id)).all()
+        readings = session.scalars(select(ReadingRow).where(ReadingRow.case_id == case.id)).all()
         repairs = session.scalars(select(RepairAction).where(RepairAction.case_id == case.id)).all()
         verifications = session.scalars(select(Verification).where(Verification.case_id == case.id)).all()
         ack = session.get(CautionAcknowledgement, case.id)

@@ -94,7 +94,7 @@ def _comparable(value):
 def test_sorts_by_each_column_in_the_database(qtbot, history, column):
     for order in (Qt.SortOrder.AscendingOrder, Qt.SortOrder.DescendingOrder):
         history.table.sortByColumn(column, order)
-        settle(qtbot, lambda: not history.controller.loading
+        settle(qtbot, lambda order=order: not history.controller.loading
                and history.controller.sort_key == SORT_KEY[column]
                and history.controller.descending == (order == Qt.SortOrder.DescendingOrder))
         rows = _all_rows(qtbot, history)

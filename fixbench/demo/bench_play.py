@@ -18,6 +18,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from fixbench.engine import start_diagnosis
+from fixbench.engine.follow import follow_planner
 from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.engine.readings import read
 from fixbench.engine.repair_order import REPLACE_MINUTES
@@ -103,18 +104,15 @@ def engine_bench_session(family: Family, ratings: dict, fault_id: str, seed: int
                          repair: bool = True) -> BenchSession:
     """Diagnose a simulated unit with ``fault_id`` by the engine's own proposals; then repair it."""
     parsed = parse_ratings(ratings)
-    state = start_diagnosis(family, parsed)
     unit = simulated_unit(family, parsed, fault_id, seed, wrong_rate=WRONG_READING_RATE)
-    steps = []
-    while state.next_check is not None and len(steps) < MAX_READINGS:
-        proposal = state.next_check
-        text = unit.measure(proposal.check.id)
-        state = state.with_reading(proposal.check.id, text)
-        taken = state.readings[-1]
-        steps.append(BenchStep(
-            proposal.check.id, taken.text, taken.value, taken.unit, taken.outcome,
-            tuple(RankedSuspect.from_engine(s) for s in state.suspects[:KEPT_SUSPECTS]),
-            float(proposal.minutes)))
+    path = follow_planner(start_diagnosis(family, parsed), unit.measure, MAX_READINGS)
+    steps = [BenchStep(step.proposal.check.id, step.reading.text, step.reading.value,
+                       step.reading.unit, step.reading.outcome,
+                       tuple(RankedSuspect.from_engine(s)
+                             for s in step.after.suspects[:KEPT_SUSPECTS]),
+                       float(step.proposal.minutes))
+             for step in path.steps]
+    state = path.final
     conclusion = state.final_conclusion()
     if not repair:
         return BenchSession(tuple(steps), conclusion.faults, None, ())

@@ -9,6 +9,11 @@
   of the largest family (most checks) is diagnosed through the step card, and each reading is
   timed from the Enter key to the moment the suspects and the next step are on screen and the
   reading is committed to the database. Target: median at most 100 ms.
+- The owner's screens on a temporary shop of N cases (the store benchmark's bulk filler): the
+  History tab's first page, a filter, the Figures tab drawn. Target at 100,000 cases: 1 s each.
+
+The window is driven by :mod:`fixbench.ui.timed_screens`; this module builds the shops, runs the
+start-up processes and prints.
 """
 
 from __future__ import annotations
@@ -21,11 +26,17 @@ import tempfile
 import time
 from pathlib import Path
 
+from fixbench.app import display_available
+from fixbench.benchmarks.filled_shop import fill_bench_shop
+from fixbench.store import open_store
+from fixbench.store.people import add_technician
+
 STARTUP_RUNS = 5
 READINGS = 30
 STARTUP_TARGET = 2.0
 READING_TARGET_MS = 100.0
 TIMEOUT_S = 120
+REVIEW_TARGET_MS = 1000.0  # each, with 100,000 cases
 
 BARE = """
 import os, sys
@@ -47,8 +58,6 @@ run_app(sys.argv[1], on_shown=lambda window: (print("shown", flush=True), os._ex
 
 def _environment() -> dict[str, str]:
     env = dict(os.environ)
-    from fixbench.app import display_available
-
     if not display_available():
         env["QT_QPA_PLATFORM"] = "offscreen"
     return env
@@ -82,84 +91,43 @@ def measure_startup(database: Path, runs: int = STARTUP_RUNS) -> dict:
             "qt_platform": env.get("QT_QPA_PLATFORM", "default")}
 
 
-def _largest_family(knowledge):
-    return max(knowledge.families.values(), key=lambda f: (len(f.checks), len(f.faults)))
+def _offscreen_unless_displayed() -> None:
+    # Set before Qt is first imported in this process.
+    if not display_available():
+        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
 
 def measure_reading_update(folder: Path, readings: int = READINGS) -> dict:
-    os.environ.setdefault("QT_QPA_PLATFORM", "offscreen") if not _display() else None
-    from PySide6.QtCore import Qt
-    from PySide6.QtTest import QTest
-    from PySide6.QtWidgets import QApplication
+    _offscreen_unless_displayed()
+    from fixbench.ui.timed_screens import time_reading_updates
 
-    from fixbench.engine import simulate_readings
-    from fixbench.physics.ratings import parse_ratings
-    from fixbench.store import open_store
-    from fixbench.store.people import add_technician
-    from fixbench.ui.bench.records import IntakeForm
-    from fixbench.ui.context import AppContext
-    from fixbench.ui.main_window import MainWindow
-
-    app = QApplication.instance() or QApplication(sys.argv[:1])
     store = open_store(folder / "bench.sqlite")
     add_technician(store, "Bench Timer")
-    window = MainWindow(AppContext(store))
-    window.resize(1366, 768)
-    window.show()
-    bench = window.screens["Bench"]
-    family = _largest_family(bench.context.knowledge)
-    ratings = {"mains": "230 V", "output": "5 V", "current": "2 A"}
-    faults = [f.id for f in family.faults]
-    times: list[float] = []
-    case = 0
-
-    def wait(condition) -> None:
-        deadline = time.perf_counter() + TIMEOUT_S
-        while not condition():
-            app.processEvents()
-            if time.perf_counter() > deadline:
-                raise RuntimeError("the bench did not answer in time")
-
-    while len(times) < readings:
-        fault = faults[case % len(faults)]
-        unit = simulate_readings(family, parse_ratings(ratings), fault, seed=case, noise=True)
-        bench.controller.open_case(IntakeForm(f"UI-BENCH-{case}", "Benchmark", "B-1", "", "phone charger",
-                                              family.id, ratings, ()))
-        wait(lambda: not bench.controller.busy)
-        bench.controller.acknowledge_cautions()
-        wait(lambda: not bench.controller.busy and bench.page == "guided")
-        card = bench.panels["guided"].card
-        while card.field.isEnabled() and len(times) < readings:
-            check_id = bench.controller.current_check_id()
-            card.field.edit.setText(unit[check_id])
-            kept = len(bench.controller.view.state.readings)
-            start = time.perf_counter()
-            QTest.keyClick(card.field.edit, Qt.Key.Key_Return)
-            wait(lambda: not bench.controller.busy
-                 and len(bench.controller.view.state.readings) == kept + 1)
-            app.processEvents()  # the repaint of the suspects, the picture and the next card
-            times.append(time.perf_counter() - start)
-        bench.controller.back_to_cases()
-        case += 1
-    window.close()
-    store.close()
-    ms = sorted(t * 1000 for t in times)
-    return {"reading_update_ms_median": round(statistics.median(ms), 2),
-            "reading_update_ms_p90": round(ms[int(0.9 * (len(ms) - 1))], 2),
-            "reading_update_ms_max": round(ms[-1], 2), "reading_update_samples": len(ms),
-            "reading_update_family": family.id}
+    try:
+        return time_reading_updates(store, readings)
+    finally:
+        store.close()
 
 
-def _display() -> bool:
-    from fixbench.app import display_available
+def measure_review(cases: int) -> dict:
+    """Fill a temporary shop with ``cases`` cases and time the owner's screens offscreen."""
+    os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    from fixbench.ui.timed_screens import time_owner_screens
 
-    return display_available()
+    with tempfile.TemporaryDirectory(prefix="fixbench-review-") as folder:
+        store = open_store(Path(folder) / "review.sqlite")
+        try:
+            fill_bench_shop(store, cases)
+            with store.engine.begin() as connection:
+                connection.exec_driver_sql("ANALYZE")
+            timed = time_owner_screens(store)
+        finally:
+            store.close()
+    # Prefixed where the UI benchmark, which merges these into its own result, has the same name.
+    return {"review_cases": cases, **timed, "review_target_ms": REVIEW_TARGET_MS}
 
 
 def _startup_database(folder: Path) -> Path:
-    from fixbench.store import open_store
-    from fixbench.store.people import add_technician
-
     path = folder / "startup.sqlite"
     store = open_store(path)
     add_technician(store, "Bench Timer")
@@ -168,7 +136,6 @@ def _startup_database(folder: Path) -> Path:
 
 
 REVIEW_KEYS = ("history_open_ms", "filter_ms", "figures_ms")
-REVIEW_TARGET_MS = 1000.0  # each, with 100,000 cases
 
 
 def run_ui_benchmark(cases: int) -> dict:
@@ -177,8 +144,6 @@ def run_ui_benchmark(cases: int) -> dict:
         result = {"targets": {"startup_ratio": STARTUP_TARGET, "reading_update_ms_median": READING_TARGET_MS}}
         result.update(measure_startup(_startup_database(folder)))
         result.update(measure_reading_update(folder))
-    from fixbench.ui.review.benchmark import measure_review
-
     review = measure_review(cases)
     result["review"] = review
     # The owner's screens' figures, at the top level where scripts look for them.

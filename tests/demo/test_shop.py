@@ -13,11 +13,11 @@ from sqlalchemy import func, select
 
 from fixbench.knowledge import load_knowledge
 from fixbench.store import open_store
-from fixbench.store.demo_plan import catalogue_from_knowledge, plan_shop
-from fixbench.store.demo_shop import build_demo_shop
+from fixbench.demo.plan import catalogue_from_knowledge, plan_shop
+from fixbench.demo.shop import build_demo_shop
 from fixbench.store.digest import content_digest, table_digests
-from fixbench.store.figures import bench_minutes, first_suspect_hits, repair_rates
-from fixbench.store.models import (Case, PracticeAttempt, Reading, RepairAction, Suspect,
+from fixbench.store.owner_figures import bench_minutes, first_suspect_hits, repair_rates
+from fixbench.store.models import (Case, PracticeAttempt, ReadingRow, RepairAction, SuspectRow,
                                    Technician, Verification)
 
 DAYS = 75
@@ -41,12 +41,12 @@ def test_demo_history_is_written_whole_and_closed(demo):
                                      .group_by(Technician.role)).all())
         assert roles == {"technician": 4, "trainee": 2}
         assert session.scalar(select(func.count()).select_from(PracticeAttempt)) > 20
-        per_case = session.scalar(select(func.count()).select_from(Reading)) / count
+        per_case = session.scalar(select(func.count()).select_from(ReadingRow)) / count
         assert 5 <= per_case <= 30
         # Suspects after every reading, ranked from 1.
-        assert session.scalar(select(func.min(Suspect.rank))) == 1
-        assert session.scalar(select(func.count(func.distinct(Suspect.reading_id)))) == \
-            session.scalar(select(func.count()).select_from(Reading))
+        assert session.scalar(select(func.min(SuspectRow.rank))) == 1
+        assert session.scalar(select(func.count(func.distinct(SuspectRow.reading_id)))) == \
+            session.scalar(select(func.count()).select_from(ReadingRow))
 
 
 def test_repaired_cases_have_parts_at_cost_and_a_passing_last_verification(demo):
@@ -96,7 +96,7 @@ def test_figures_of_the_demo_look_like_a_working_shop(demo):
 BUILD = textwrap.dedent("""
     import sys
     from fixbench.store import open_store
-    from fixbench.store.demo_shop import build_demo_shop
+    from fixbench.demo.shop import build_demo_shop
     from fixbench.store.digest import content_digest
     store = open_store(sys.argv[1])
     build_demo_shop(store, seed=int(sys.argv[2]), days=int(sys.argv[3]))

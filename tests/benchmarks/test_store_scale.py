@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import json
 
-from fixbench.store.benchmark import print_store_benchmark, run_store_benchmark
-from fixbench.store.figures import OWNER_FIGURES
+from fixbench.benchmarks.store_scale import print_store_benchmark, run_store_benchmark
+from fixbench.store.owner_figures import OWNER_FIGURES
 
 
 def test_small_benchmark_reports_rates_query_times_and_size(capsys):

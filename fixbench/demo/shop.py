@@ -1,8 +1,8 @@
 """Builds the demo shop database: the planned history, each case played at the bench by the engine.
 
 The plan (people, devices, dates, faults, outcomes, comebacks, each technician's pace) comes from
-:mod:`fixbench.store.demo_plan`; each case's readings, suspects after every reading, repairs and
-verification readings come from :func:`fixbench.store.demo_bench.engine_bench_session`, so every
+:mod:`fixbench.demo.plan`; each case's readings, suspects after every reading, repairs and
+verification readings come from :func:`fixbench.demo.bench_play.engine_bench_session`, so every
 case in the demo is one the engine really produced. Everything is written through the same store
 functions the bench uses, with times laid out as the bench would have taken them. The same seed
 gives the same rows.
@@ -18,8 +18,8 @@ from fixbench.knowledge.model import Family
 from fixbench.store.cases import (add_reading, add_repair_action, add_verification, close_case,
                                   open_case)
 from fixbench.store.database import Store
-from fixbench.store.demo_bench import BenchSession, engine_bench_session
-from fixbench.store.demo_plan import (SHOP_DAYS, TECHNICIANS, TRAINEES, DemoCase,
+from fixbench.demo.bench_play import BenchSession, engine_bench_session
+from fixbench.demo.plan import (SHOP_DAYS, TECHNICIANS, TRAINEES, DemoCase,
                                       catalogue_from_knowledge, plan_practice, plan_shop)
 from fixbench.store.people import add_device, add_practice_attempt, add_technician
 

@@ -8,7 +8,7 @@ technician's pace as a log-normal spread around their own speed (repair times ar
 modelled as log-normal; Kline, "The Lognormal Distribution as a Repair-Time Model", 1984), some
 units that come back within 90 days and some that are not worth repairing. The readings, repairs,
 verifications and bench minutes of each case come from the engine, in
-:mod:`fixbench.store.demo_bench`.
+:mod:`fixbench.demo.bench_play`.
 """
 
 from __future__ import annotations

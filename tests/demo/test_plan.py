@@ -9,7 +9,7 @@ import pytest
 
 from fixbench.knowledge import load_knowledge
 from fixbench.physics.ratings import parse_ratings
-from fixbench.store.demo_plan import (MODELS, SHOP_DAYS, SHOP_END, TECHNICIANS, TRAINEES,
+from fixbench.demo.plan import (MODELS, SHOP_DAYS, SHOP_END, TECHNICIANS, TRAINEES,
                                       catalogue_from_knowledge, plan_practice, plan_shop)
 
 

@@ -9,9 +9,9 @@ from fixbench.engine.simulate import simulated_unit
 from fixbench.knowledge import load_knowledge
 from fixbench.physics.ratings import parse_ratings
 from fixbench.store.cases import RankedSuspect
-from fixbench.store.demo_bench import (KEPT_SUSPECTS, TEST_MINUTES, WRONG_READING_RATE,
+from fixbench.demo.bench_play import (KEPT_SUSPECTS, TEST_MINUTES, WRONG_READING_RATE,
                                        engine_bench_session, value_fitted)
-from fixbench.store.demo_plan import MODELS
+from fixbench.demo.plan import MODELS
 
 KB = load_knowledge()
 RATINGS = {m.family_id: {**m.label, "bench_mains": "230 V"} for m in MODELS}

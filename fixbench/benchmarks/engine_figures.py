@@ -1,0 +1,226 @@
+"""The engine benchmark: simulated faulty units drawn from the priors, diagnosed by the engine's own
+choice of checks, with the figures the engine is held to.
+
+- accuracy: the true root fault (or the group of faults no check can tell apart) ranked first, with
+  exact readings and with 5 % of readings wrong and meter tolerance on the rest; top three with
+  wrong readings;
+- effort: mean minutes to the conclusion against a fixed input-to-output signal-tracing order, and
+  against the exact optimal policy found by exhaustive search on a reduced model; the entropy lower
+  bound on the number of checks;
+- safety: proposals of plain mains while a primary short is plausible, or of a cold primary check
+  after power without the discharge confirmation (must be zero);
+- speed: median time of one reading update plus the next-check choice on the largest family.
+
+The units are diagnosed by :func:`fixbench.engine.follow.follow_planner`, the same loop the demo
+shop and practice use; the clock is read here, around the unit's measurements, so the engine
+itself never reads one.
+"""
+
+from __future__ import annotations
+
+import math
+import random
+import statistics
+import time
+from dataclasses import dataclass
+
+import numpy as np
+
+from fixbench.engine import planner
+from fixbench.engine.diagnosis import DiagnosisState, start_diagnosis
+from fixbench.engine.fault_model import cached_fault_model
+from fixbench.engine.follow import follow_planner
+from fixbench.engine.hypotheses import root_weights
+from fixbench.engine.optimal import reduced_comparison
+from fixbench.engine.simulate import simulated_unit
+from fixbench.knowledge import KnowledgeBase, load_knowledge
+from fixbench.knowledge.graph import power_order
+from fixbench.physics.ratings import parse_ratings
+
+# One unit of each family the benchmark draws faults for.
+BENCH_RATINGS = {
+    "pwm_flyback": {"mains": "universal", "bench_mains": "230 V", "output": "19 V", "current": "3.4 A"},
+    "primary_side": {"mains": "universal", "bench_mains": "120 V", "output": "5 V", "current": "2 A"},
+    "self_oscillating": {"mains": "230 V", "output": "5 V", "current": "1 A"},
+}
+DEFAULT_RATINGS = {"mains": "230 V", "output": "5 V", "current": "1 A"}
+MAX_STEPS = 80
+WRONG_RATE = 0.05
+
+
+@dataclass
+class RunResult:
+    correct_top1: bool
+    correct_top3: bool
+    minutes: float
+    checks: int
+    unsafe: int
+
+
+def _true_group(state: DiagnosisState, root: str) -> tuple[str, ...]:
+    return state.model.group_of(root)
+
+
+def _unsafe(state: DiagnosisState, check_id: str) -> int:
+    """Independent check of the safety rules on a proposal made in ``state``."""
+    model, post = state.model, state.posterior
+    check = state.family.check(check_id)
+    if check.power == "live" and (planner.primary_short_chance(model, post) > planner.SHORT_THRESHOLD
+                                  or not planner.lamp_cleared(model, state.evidence)):
+        return 1
+    if (check.power == "cold" and state.powered_since_discharge and state.family.touches_primary(check)
+            and check.id != planner.DISCHARGE_CHECK):
+        return 1
+    return 0
+
+
+def run_engine(state: DiagnosisState, unit, root: str, timings: list[float] | None = None) -> RunResult:
+    """The engine's own order of checks on ``unit``; with ``timings``, the time of each reading
+    update plus the next-check choice after it is appended (the unit's measuring left out)."""
+    measure = unit.measure if timings is None else _UpdateTimer(unit.measure, timings)
+    path = follow_planner(state, measure, MAX_STEPS)
+    if timings is not None:
+        measure.stop()
+    unsafe = sum(_unsafe(step.before, step.proposal.check.id) for step in path.steps)
+    return _score(path.final, root, path.minutes, len(path.steps), unsafe)
+
+
+class _UpdateTimer:
+    """Wraps a unit's ``measure``: the time from the end of one measurement to the start of the
+    next is the engine taking the reading and choosing its next check."""
+
+    def __init__(self, measure, timings: list[float]) -> None:
+        self.measure, self.timings, self.since = measure, timings, None
+
+    def __call__(self, check_id: str) -> str:
+        self.stop()
+        text = self.measure(check_id)
+        self.since = time.perf_counter()
+        return text
+
+    def stop(self) -> None:
+        if self.since is not None:
+            self.timings.append(time.perf_counter() - self.since)
+            self.since = None
+
+
+def _score(state: DiagnosisState, root: str, minutes: float, steps: int, unsafe: int) -> RunResult:
+    truth = set(_true_group(state, root))
+    ranked = planner.group_chances(state.model, state.posterior)
+    top = [set(g) for g, _ in ranked[:3]]
+    return RunResult(bool(truth & top[0]), any(truth & g for g in top), minutes, steps, unsafe)
+
+
+def fixed_order(state: DiagnosisState) -> list[str]:
+    """Signal tracing: stage by stage from the mains input to the output; within a stage, questions
+    and looks first, then cold checks, then the lamp, then live checks (file order otherwise)."""
+    family = state.family
+    rank = {stage: i for i, stage in enumerate(power_order(family))}
+    power_rank = {"none": 0, "cold": 1, "lamp": 2, "live": 3}
+
+    def key(i_check):
+        i, check = i_check
+        stage = family.test_point(check.points[0]).stage if check.points else power_order(family)[0]
+        return (0 if check.power == "none" else 1, rank[stage], power_rank[check.power], i)
+
+    ordered = sorted(enumerate(family.checks), key=key)
+    return [c.id for _, c in ordered if not c.procedure]
+
+
+def run_fixed(state: DiagnosisState, unit, root: str) -> RunResult:
+    """The fixed order, taking only checks that are safe at the time, until the same stop rule."""
+    minutes, steps = 0.0, 0
+    pending = fixed_order(state)
+    while pending and not planner.finished(state.model, state.posterior):
+        allowed = [c for c in pending
+                   if planner.is_allowed(state.model, state.posterior, state.model.check_index(c), state.evidence)]
+        if not allowed:
+            break
+        check_id = allowed[0]
+        pending.remove(check_id)
+        if (state.powered_since_discharge and state.family.check(check_id).power == "cold"
+                and state.family.touches_primary(state.family.check(check_id))):
+            state = state.with_reading(planner.DISCHARGE_CHECK, unit.measure(planner.DISCHARGE_CHECK))
+            minutes += state.family.check(planner.DISCHARGE_CHECK).minutes
+        state = state.with_reading(check_id, unit.measure(check_id))
+        minutes += state.family.check(check_id).minutes
+        steps += 1
+    return _score(state, root, minutes, steps, 0)
+
+
+def entropy_bound(state: DiagnosisState) -> float:
+    """Lower bound on the expected number of checks: the prior entropy of the fault groups over the
+    most a single check can tell, log2 of its number of outcomes [src: Shannon's source-coding
+    bound; Cover & Thomas, ch. 5]."""
+    chances = np.array([p for _, p in planner.group_chances(state.model, state.model.prior)])
+    entropy = float(-(chances[chances > 0] * np.log2(chances[chances > 0])).sum())
+    widest = max(len(c.classes.names) for c in state.model.checks if c.informative)
+    return entropy / math.log2(widest)
+
+
+def run_benchmark(seed: int = 0, units_per_family: int = 150, kb: KnowledgeBase | None = None) -> dict:
+    kb = kb or load_knowledge()
+    rng = random.Random(seed)
+    exact, noisy, engine_min, fixed_min, bounds, unsafe = [], [], [], [], [], 0
+    timings: list[float] = []
+    largest = max(kb.families.values(), key=lambda f: len(cached_fault_model(
+        f, parse_ratings(BENCH_RATINGS.get(f.id, DEFAULT_RATINGS))).hypotheses))
+    sizes = {}
+    for family in kb.families.values():
+        ratings = parse_ratings(BENCH_RATINGS.get(family.id, DEFAULT_RATINGS))
+        start = start_diagnosis(family, ratings)
+        sizes[family.id] = (len(start.model.hypotheses), len(start.model.checks))
+        weights = root_weights(family)
+        roots, chances = list(weights), list(weights.values())
+        bounds.append(entropy_bound(start))
+        for _ in range(units_per_family):
+            root = rng.choices(roots, weights=chances)[0]
+            unit_seed = rng.randrange(1 << 30)
+            result = run_engine(start, simulated_unit(family, ratings, root, unit_seed, exact=True), root)
+            exact.append(result)
+            engine_min.append(result.minutes)
+            fixed = run_fixed(start, simulated_unit(family, ratings, root, unit_seed, exact=True), root)
+            fixed_min.append(fixed.minutes)
+            noisy_unit = simulated_unit(family, ratings, root, unit_seed, exact=False, wrong_rate=WRONG_RATE)
+            noisy.append(run_engine(start, noisy_unit, root, timings if family is largest else None))
+            unsafe += exact[-1].unsafe + noisy[-1].unsafe
+    optimal = reduced_comparison(largest, parse_ratings(BENCH_RATINGS.get(largest.id, DEFAULT_RATINGS)))
+    return {
+        "units": len(exact),
+        "families": {fid: {"hypotheses": h, "checks": c} for fid, (h, c) in sizes.items()},
+        "top1_exact": sum(r.correct_top1 for r in exact) / len(exact),
+        "top1_noisy": sum(r.correct_top1 for r in noisy) / len(noisy),
+        "top3_noisy": sum(r.correct_top3 for r in noisy) / len(noisy),
+        "mean_minutes_engine": statistics.fmean(engine_min),
+        "mean_minutes_fixed_order": statistics.fmean(fixed_min),
+        "minutes_vs_fixed_order": statistics.fmean(engine_min) / statistics.fmean(fixed_min),
+        "minutes_vs_optimal": optimal["ratio"],
+        "optimal_model": optimal,
+        "mean_checks_engine": statistics.fmean(r.checks for r in exact),
+        "entropy_bound_checks": statistics.fmean(bounds),
+        "unsafe_proposals": unsafe,
+        "step_ms_median": 1000 * statistics.median(timings) if timings else None,
+        "largest_family": largest.id,
+        "hypotheses": sizes[largest.id][0],
+        "checks": sizes[largest.id][1],
+        "seed": seed,
+    }
+
+
+def print_report(result: dict) -> None:
+    print(f"engine benchmark: {result['units']} simulated units, seed {result['seed']}")
+    for fid, size in result["families"].items():
+        print(f"  {fid}: {size['hypotheses']} hypotheses, {size['checks']} checks")
+    print(f"  top-1, exact readings          {result['top1_exact']:.1%}   (target >= 97 %)")
+    print(f"  top-1, 5 % wrong + tolerance   {result['top1_noisy']:.1%}   (target >= 90 %)")
+    print(f"  top-3, 5 % wrong + tolerance   {result['top3_noisy']:.1%}   (target >= 98 %)")
+    print(f"  minutes: engine {result['mean_minutes_engine']:.1f}, fixed order {result['mean_minutes_fixed_order']:.1f}"
+          f"  ratio {result['minutes_vs_fixed_order']:.2f}   (target <= 0.60)")
+    o = result["optimal_model"]
+    print(f"  vs exact optimum on a reduced model ({o['faults']} faults, {o['checks']} checks): "
+          f"engine {o['greedy_minutes']:.2f} min, optimum {o['optimal_minutes']:.2f} min, ratio {o['ratio']:.3f}"
+          f"   (target <= 1.10)")
+    print(f"  checks per unit: engine {result['mean_checks_engine']:.1f}, entropy bound {result['entropy_bound_checks']:.2f}")
+    print(f"  unsafe proposals               {result['unsafe_proposals']}   (target 0)")
+    print(f"  update + next check, median    {result['step_ms_median']:.2f} ms on {result['largest_family']} "
+          f"({result['hypotheses']} hypotheses, {result['checks']} checks)   (target <= 50 ms)")

@@ -1,0 +1,49 @@
+"""The engine benchmark's report: its documented figures are there, of the right kind, and safe."""
+
+from __future__ import annotations
+
+import numbers
+
+import pytest
+
+from fixbench.benchmarks.engine_figures import run_benchmark
+
+FRACTIONS = ("top1_exact", "top1_noisy", "top3_noisy")
+RATIOS = ("minutes_vs_fixed_order", "minutes_vs_optimal", "entropy_bound_checks")
+
+
+@pytest.fixture(scope="module")
+def result():
+    return run_benchmark(seed=1, units_per_family=10)
+
+
+def test_benchmark_reports_its_documented_figures(result):
+    for key in FRACTIONS + RATIOS + ("unsafe_proposals", "step_ms_median", "hypotheses", "checks"):
+        assert key in result, key
+    for key in FRACTIONS:
+        assert isinstance(result[key], numbers.Real) and 0.0 <= result[key] <= 1.0, key
+    for key in RATIOS:
+        assert isinstance(result[key], numbers.Real) and result[key] > 0.0, key
+    assert isinstance(result["unsafe_proposals"], int)
+    assert isinstance(result["hypotheses"], int) and result["hypotheses"] > 0
+    assert isinstance(result["checks"], int) and result["checks"] > 0
+    assert result["step_ms_median"] is None or isinstance(result["step_ms_median"], numbers.Real)
+
+
+def test_benchmark_finds_no_unsafe_proposal(result):
+    assert result["unsafe_proposals"] == 0
+
+
+def test_top_three_is_at_least_top_one(result):
+    assert result["top3_noisy"] >= result["top1_noisy"]
+
+
+def test_engine_never_beats_the_exact_optimum(result):
+    # the exhaustive search is a lower bound on expected minutes [src: Pattipati & Alexandridis 1990]
+    assert result["minutes_vs_optimal"] >= 1.0 - 1e-9
+
+
+def test_benchmark_is_repeatable_for_a_seed(result):
+    again = run_benchmark(seed=1, units_per_family=10)
+    for key in FRACTIONS + RATIOS + ("unsafe_proposals",):
+        assert again[key] == result[key], key
