@@ -1,0 +1,159 @@
+"""The Figures screen: numbers shown equal numbers counted by hand from the raw rows, and a click
+on a bar lists those cases on the History screen."""
+
+from __future__ import annotations
+
+import math
+from collections import Counter
+from datetime import date, datetime, timedelta
+
+import pytest
+from PySide6.QtCore import QDate, Qt
+
+from fixbench.store import open_store
+from fixbench.store.cases import (RankedSuspect, add_reading, add_verification, close_case,
+                                  open_case)
+from fixbench.store.people import add_device, add_technician
+from fixbench.ui.context import AppContext
+from fixbench.ui.review.figures_screen import FiguresScreen
+from fixbench.ui.review.history import HistoryScreen
+
+from .helpers import settle
+
+RATINGS = {"mains": "230 V", "frequency": "50 Hz", "output": "5 V", "current": "2 A"}
+# ticket, technician, device, month, day, outcome, minutes, confirmed fault, engine's first
+# suspect, first verification failed
+PLAN = [
+    ("A1", 0, 0, 3, 4, "repaired", 30, "Q1.short", "Q1.short", False),
+    ("A2", 0, 1, 3, 6, "repaired", 45, "Q1.short", "C1.dried", False),
+    ("A3", 1, 2, 3, 9, "repaired", 20, "C1.dried", "C1.dried", True),
+    ("A4", 1, 3, 3, 12, "no_fault_found", 15, None, "Q1.short", False),
+    ("A5", 2, 4, 3, 20, "repaired", 60, "R1.open", "R1.open", False),
+    ("A6", 0, 0, 4, 2, "repaired", 25, "F1.open", "Q1.short", False),  # device 0 again: A1 came back
+    ("A7", 2, 5, 4, 8, "not_economical", 10, None, "C1.dried", False),
+    ("A8", 1, 6, 4, 15, "repaired", 35, "Q1.short", "Q1.short", False),
+    ("A9", 2, 7, 4, 22, "repaired", 50, "C1.dried", "Q1.short", False),
+]
+PEOPLE = ("Hanne Loring", "Ivo Brask", "Jolanda Mirr")
+
+
+@pytest.fixture
+def hand_shop(tmp_path, knowledge):
+    store = open_store(tmp_path / "hand.sqlite")
+    people = [add_technician(store, name) for name in PEOPLE]
+    devices = [add_device(store, make="Quorra", model=f"QD-{i % 2}", kind="charger",
+                          label_ratings=RATINGS) for i in range(8)]
+    family = knowledge.family("pwm_flyback")
+    for ticket, who, unit, month, day, outcome, minutes, fault, first, failed in PLAN:
+        opened = datetime(2024, month, day, 10)
+        case = open_case(store, ticket_ref=ticket, device_id=devices[unit],
+                         technician_id=people[who], family_id="pwm_flyback", ratings=RATINGS,
+                         opened_at=opened)
+        add_reading(store, case, check_id="fuse_resistance", typed="0.2 ohm", value=0.2,
+                    unit="ohm", outcome=None, entered_at=opened + timedelta(minutes=5),
+                    suspects=[RankedSuspect(first, 0.6), RankedSuspect("U1.dead", 0.2)])
+        if failed:
+            add_verification(store, case, check_id="output_board", typed="0 V", value=0.0,
+                             unit="V", outcome=None, passed=False, entered_at=opened)
+        close_case(store, case, outcome=outcome, bench_minutes=minutes, confirmed_fault=fault,
+                   confirmed_part=fault and family.fault(fault).part,
+                   closed_at=opened + timedelta(hours=3))
+    yield store
+    store.close()
+
+
+def _median(values):
+    s = sorted(values)
+    n = len(s)
+    return (s[(n + 1) // 2 - 1] + s[(n + 2) // 2 - 1]) / 2
+
+
+def _nearest_rank(values, p):
+    # Hyndman & Fan definition 2 family, as the store documents: rank = ceil(p * n)
+    s = sorted(values)
+    return s[math.ceil(p * len(s)) - 1]
+
+
+@pytest.fixture
+def figures(qtbot, hand_shop, knowledge):
+    screen = FiguresScreen(AppContext(hand_shop, knowledge))
+    qtbot.addWidget(screen)
+    screen.resize(1366, 768)
+    screen.show()
+    settle(qtbot, lambda: screen.snapshot is not None and screen.choices is not None)
+    screen.since.setDate(QDate(2024, 1, 1))
+    screen.until.setDate(QDate(2024, 12, 31))
+    qtbot.mouseClick(screen.show_button, Qt.MouseButton.LeftButton)
+    settle(qtbot, lambda: screen.snapshot.scope.since == date(2024, 1, 1))
+    return screen
+
+
+def test_figures_equal_the_hand_count(figures):
+    repaired = [p for p in PLAN if p[5] == "repaired"]
+    # A1 came back: its device was opened again (A6) within 90 days of closing.
+    came_back = {"A1"}
+    first_time = [p for p in repaired if not p[9] and p[0] not in came_back]
+    minutes = [p[6] for p in PLAN]
+    confirmed = [p for p in PLAN if p[7]]
+    hits = sum(1 for p in confirmed if p[7] == p[8])
+    head = figures.snapshot.headline()
+    assert head["closed"] == len(PLAN)
+    assert head["repaired"] == len(repaired)
+    assert head["first_time_fix_rate"] == pytest.approx(len(first_time) / len(repaired))
+    assert head["comeback_rate"] == pytest.approx(len(came_back) / len(repaired))
+    assert head["median_minutes"] == _median(minutes)
+    assert head["p25_minutes"] == _nearest_rank(minutes, 0.25)
+    assert head["p75_minutes"] == _nearest_rank(minutes, 0.75)
+    assert head["first_suspect_rate"] == pytest.approx(hits / len(confirmed))
+    text = figures.headline.text()
+    assert f"<b>{len(PLAN)}</b> closed cases" in text
+    assert f"First-time fix <b>{len(first_time) / len(repaired):.0%}</b>" in text
+    assert f"median <b>{_median(minutes):g} min</b>" in text
+    faults = Counter(p[7] for p in confirmed)
+    shown = dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.faults.values))
+    assert shown == dict(faults)
+    per_month = Counter(p[3] for p in PLAN)
+    closed_line = next(item for item in figures.volume.listDataItems() if item.name() == "closed")
+    assert list(closed_line.getData()[1]) == [per_month[3], per_month[4]]
+    people = Counter(PEOPLE[p[1]] for p in PLAN)
+    assert dict(zip([r[0] for r in figures.snapshot.technicians.rows], figures.people.values)) \
+        == dict(people)
+
+
+def test_clicking_a_fault_bar_lists_those_cases(qtbot, figures, hand_shop, knowledge):
+    history = HistoryScreen(AppContext(hand_shop, knowledge))
+    qtbot.addWidget(history)
+    figures.filter_requested.connect(history.apply_filter)
+    figures.pages.setCurrentIndex(1)
+    qtbot.wait(50)
+    top_fault = figures.snapshot.faults.rows[0][0]
+    with qtbot.waitSignal(figures.filter_requested, timeout=3000) as signal:
+        qtbot.mouseClick(figures.faults.viewport(), Qt.MouseButton.LeftButton,
+                         pos=figures.faults.bar_centre(0))
+    assert signal.args[0]["fault"] == top_fault
+    assert signal.args[0]["since"] == date(2024, 1, 1)
+    settle(qtbot, lambda: history.controller.case_filter.fault == top_fault
+           and not history.controller.loading)
+    assert history.model.total == sum(1 for p in PLAN if p[7] == top_fault)
+    assert history.filters.fault.currentData() == top_fault
+
+
+def test_clicking_beside_the_bars_does_nothing(qtbot, figures):
+    figures.pages.setCurrentIndex(1)
+    qtbot.wait(50)
+    emitted = []
+    figures.filter_requested.connect(emitted.append)
+    corner = figures.faults.viewport().rect().topRight()
+    qtbot.mouseClick(figures.faults.viewport(), Qt.MouseButton.LeftButton, pos=corner)
+    assert emitted == []
+
+
+def test_device_model_scope_counts_only_that_model(qtbot, figures):
+    figures.device.setCurrentIndex(figures.device.findText("Quorra QD-0"))
+    qtbot.mouseClick(figures.show_button, Qt.MouseButton.LeftButton)
+    settle(qtbot, lambda: figures.snapshot.scope.model == "QD-0")
+    on_model = [p for p in PLAN if p[2] % 2 == 0]
+    assert figures.snapshot.headline()["closed"] == len(on_model)
+    faults = Counter(p[7] for p in on_model if p[7])
+    assert dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.faults.values)) \
+        == dict(faults)
