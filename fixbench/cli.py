@@ -11,6 +11,8 @@ import argparse
 import importlib
 import sys
 
+from fixbench.commands.usage import UsageError
+
 # command name -> module under fixbench.commands
 COMMANDS: dict[str, str] = {
     "families": "families",
@@ -23,10 +25,6 @@ COMMANDS: dict[str, str] = {
     "demo-db": "demo_db",
     "export": "export",
 }
-
-
-class UsageError(Exception):
-    """A mistake in how a command was called or in a file it was given; exit status 2."""
 
 
 def _build_parser(argv: list[str]) -> argparse.ArgumentParser:

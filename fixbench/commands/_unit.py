@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 from fixbench.knowledge import Family, load_knowledge
 from fixbench.physics.ratings import Ratings, parse_ratings
 from fixbench.quantities import ReadingError

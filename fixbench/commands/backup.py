@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 
 HELP = "back up the shop database now (keeps the newest copies, prunes the oldest)"
 

@@ -6,7 +6,7 @@ import getpass
 import sys
 from datetime import date, datetime, timedelta
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 
 HELP = "export cases of a period as CSV (owner only), or one case as JSON for `fixbench diagnose`"
 
@@ -36,7 +36,7 @@ def run(args) -> int:
         store = open_store(args.db)
         try:
             out = open(args.out, "w", newline="", encoding="utf-8") if args.out else sys.stdout
-            with out if args.out else _keep_open(out):
+            with out if args.out else _KeepOpen(out):
                 if args.case is not None:
                     out.write(dump_case_json(store, args.case) + "\n")
                     return 0
@@ -53,7 +53,7 @@ def run(args) -> int:
     return 0
 
 
-class _keep_open:
+class _KeepOpen:
     """Context manager that leaves standard output open."""
 
     def __init__(self, stream):

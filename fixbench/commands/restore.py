@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 
 HELP = "restore the shop database from a backup (default: the newest backup)"
 

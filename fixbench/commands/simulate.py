@@ -3,7 +3,7 @@
 
 from __future__ import annotations
 
-from fixbench.cli import UsageError
+from fixbench.commands.usage import UsageError
 from fixbench.commands._output import print_json
 from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
 from fixbench.engine import simulate_readings
