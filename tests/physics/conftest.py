@@ -7,7 +7,7 @@ import pytest
 from tests.support.ngspice import ngspice_binary
 
 
-@pytest.fixture
+@pytest.fixture(scope="session")
 def ngspice() -> str:
     """Path of the ngspice binary; skips the test (with the reason) only when it is not installed."""
     binary = ngspice_binary()

@@ -1,0 +1,203 @@
+"""Each kind of part as a meter sees it unplugged, healthy and in each failure mode.
+
+A failure is a change to the part's elements: open removes its conducting path, short puts a low
+resistance across its main terminals, drift raises a resistance, dried lowers a capacitance and
+raises its ESR. Switches, controllers and optocouplers are unpowered, so only their junctions and
+internal resistances show; a MOSFET's channel and a phototransistor are off [practice].
+"""
+
+from __future__ import annotations
+
+from fixbench.physics.cold import junctions as jn
+from fixbench.physics.cold.board_part import BoardPart
+from fixbench.physics.cold.elements import Capacitor, Element, Junction, Resistor, Winding
+
+# Pins of each kind, in the order a netlist names them.
+PINS: dict[str, tuple[str, ...]] = {
+    "fuse": ("a", "b"), "thermistor": ("a", "b"), "resistor": ("a", "b"), "lead": ("a", "b"),
+    "electrolytic": ("plus", "minus"), "film_capacitor": ("a", "b"),
+    "rectifier_diode": ("anode", "cathode"), "fast_diode": ("anode", "cathode"),
+    "schottky": ("anode", "cathode"), "zener": ("anode", "cathode"),
+    "bridge": ("ac1", "ac2", "plus", "minus"),
+    "mosfet": ("drain", "gate", "source"), "bjt": ("base", "collector", "emitter"),
+    "controller": ("vcc", "gnd"),
+    "optocoupler": ("anode", "cathode", "collector", "emitter"),
+    "tl431": ("cathode", "anode", "ref"),
+    "transformer": ("primary_a", "primary_b", "aux_a", "aux_b", "secondary_a", "secondary_b",
+                    "feedback_a", "feedback_b"),
+}
+# Pins a netlist must give; the others may be left out (a transformer without an aux winding).
+REQUIRED_PINS: dict[str, tuple[str, ...]] = {"transformer": ("primary_a", "primary_b")}
+
+SHORT_OHM = 0.3  # a shorted junction, capacitor or fuse-class part reads a fraction of an ohm [practice]
+SHORTED_CONTROLLER_OHM = 8.0  # a controller's supply input shorted inside: a few ohms [practice]
+DRIFT_FACTOR = 3.0  # a resistor that drifted reads several times its value [practice]
+DRIED_CAPACITANCE = 0.25  # a dried electrolytic keeps about a quarter of its value [practice]
+DRIED_ESR = 8.0  # times the new part's ESR, far above the suspect limit of 2x [practice]
+FUSE_OHM = 0.05  # a good glass or ceramic fuse [practice]
+LEAD_OHM = 0.2  # a charger cable's conductor [practice]
+# A controller's supply pin to ground, unpowered: internal bias and start-up circuits, tens to
+# hundreds of kilohm [memory: UC384x-class controllers measured cold].
+CONTROLLER_VCC_OHM = 150e3
+AUX_WINDING_OHM = 1.0  # auxiliary winding of a charger transformer [practice]
+SECONDARY_WINDING_OHM = 0.05  # secondary of a 5-20 V output [practice]
+FEEDBACK_WINDING_OHM = 0.5  # base-drive winding of a self-oscillating supply [practice]
+
+DIODE_JUNCTIONS = {"rectifier_diode": jn.SILICON_RECTIFIER, "fast_diode": jn.FAST_RECOVERY,
+                   "schottky": jn.SCHOTTKY}
+RESISTIVE = ("fuse", "thermistor", "resistor", "lead")
+
+
+def _check_pins(part: BoardPart) -> None:
+    known = PINS.get(part.kind)
+    if known is None:
+        raise ValueError(f"{part.id}: no cold model for a part of kind '{part.kind}'")
+    pins = dict(part.pins)
+    unknown = [p for p in pins if p not in known]
+    required = REQUIRED_PINS.get(part.kind, known)
+    missing = [p for p in required if p not in pins]
+    if unknown or missing:
+        raise ValueError(f"{part.id} ({part.kind}): pins must be {', '.join(known)}"
+                         f"{'; unknown ' + ', '.join(unknown) if unknown else ''}"
+                         f"{'; missing ' + ', '.join(missing) if missing else ''}")
+
+
+def _mode_error(part: BoardPart) -> ValueError:
+    return ValueError(f"{part.id}: a {part.kind} has no failure mode '{part.mode}'")
+
+
+def _resistive(part: BoardPart) -> tuple[Element, ...]:
+    """A resistor chain (or fuse, thermistor, conductor): ``count`` equal resistors in series; a
+    fault hits the first one."""
+    if part.kind == "fuse":
+        total = FUSE_OHM
+    elif part.kind == "lead":
+        total = LEAD_OHM
+    else:
+        total = part.value
+    if total is None:
+        raise ValueError(f"{part.id}: a {part.kind} needs a value in ohm")
+    if part.mode not in ("ok", "open", "drift"):
+        raise _mode_error(part)
+    each = total / part.count
+    nodes = [part.node("a")] + [f"{part.id}.chain{k}" for k in range(1, part.count)] + [part.node("b")]
+    elements: list[Element] = []
+    for k in range(part.count):
+        name = part.id if part.count == 1 else f"{part.id}.{k + 1}"
+        if k == 0 and part.mode == "open":
+            continue
+        ohm = each * DRIFT_FACTOR if (k == 0 and part.mode == "drift") else each
+        elements.append(Resistor(name, nodes[k], nodes[k + 1], ohm))
+    return tuple(elements)
+
+
+def _two_terminal(part: BoardPart, a: str, b: str, healthy: tuple[Element, ...]) -> tuple[Element, ...]:
+    """A part whose failures are open (nothing conducts) or short (a low resistance a-b)."""
+    if part.mode == "ok":
+        return healthy
+    if part.mode == "open":
+        return ()
+    if part.mode == "short":
+        return (Resistor(f"{part.id}.short", part.node(a), part.node(b), SHORT_OHM),)
+    raise _mode_error(part)
+
+
+def _capacitor(part: BoardPart) -> tuple[Element, ...]:
+    a, b = PINS[part.kind]
+    esr = part.figure("esr_ohm", 0.0)
+    if part.value is None:
+        raise ValueError(f"{part.id}: a capacitor needs a value in farad")
+    if part.mode == "dried":
+        return (Capacitor(part.id, part.node(a), part.node(b), part.value * DRIED_CAPACITANCE, esr * DRIED_ESR),)
+    return _two_terminal(part, a, b, (Capacitor(part.id, part.node(a), part.node(b), part.value, esr),))
+
+
+def _zener(part: BoardPart) -> tuple[Element, ...]:
+    if part.value is None:
+        raise ValueError(f"{part.id}: a Zener needs its voltage as value")
+    anode, cathode = part.node("anode"), part.node("cathode")
+    breakdown_offset = part.value - jn.ZENER_BREAKDOWN.drop(jn.ZENER_TEST_CURRENT)
+    healthy = (Junction(part.id, anode, cathode, jn.ZENER_FORWARD),
+               Junction(f"{part.id}.breakdown", cathode, anode, jn.ZENER_BREAKDOWN, breakdown_offset))
+    return _two_terminal(part, "anode", "cathode", healthy)
+
+
+def _bridge(part: BoardPart) -> tuple[Element, ...]:
+    """Four rectifier junctions; a failed bridge has one failed diode, the first (ac1 to plus)."""
+    ac1, ac2, plus, minus = (part.node(p) for p in ("ac1", "ac2", "plus", "minus"))
+    diodes = [(f"{part.id}.1", ac1, plus), (f"{part.id}.2", ac2, plus),
+              (f"{part.id}.3", minus, ac1), (f"{part.id}.4", minus, ac2)]
+    if part.mode not in ("ok", "open", "short"):
+        raise _mode_error(part)
+    elements: list[Element] = []
+    for k, (name, anode, cathode) in enumerate(diodes):
+        if k == 0 and part.mode == "open":
+            continue
+        if k == 0 and part.mode == "short":
+            elements.append(Resistor(f"{name}.short", anode, cathode, SHORT_OHM))
+            continue
+        elements.append(Junction(name, anode, cathode, jn.SILICON_RECTIFIER))
+    return tuple(elements)
+
+
+def _transformer(part: BoardPart) -> tuple[Element, ...]:
+    """Each winding the netlist gives pins for; T.open is an open primary."""
+    if part.value is None:
+        raise ValueError(f"{part.id}: a transformer needs its primary winding resistance as value")
+    if part.mode not in ("ok", "open"):
+        raise _mode_error(part)
+    pins = dict(part.pins)
+    ohms = {"primary": part.value, "aux": part.figure("aux_ohm", AUX_WINDING_OHM),
+            "secondary": part.figure("secondary_ohm", SECONDARY_WINDING_OHM),
+            "feedback": part.figure("feedback_ohm", FEEDBACK_WINDING_OHM)}
+    elements: list[Element] = []
+    for winding, ohm in ohms.items():
+        if f"{winding}_a" not in pins or (winding == "primary" and part.mode == "open"):
+            continue
+        elements.append(Winding(f"{part.id}.{winding}", part.node(f"{winding}_a"), part.node(f"{winding}_b"),
+                                ohm, part.figure(f"{winding}_henry", 0.0)))
+    return tuple(elements)
+
+
+def cold_elements(part: BoardPart) -> tuple[Element, ...]:
+    """The elements ``part`` shows a meter in its state."""
+    _check_pins(part)
+    kind, node = part.kind, part.node
+    if kind in RESISTIVE:
+        return _resistive(part)
+    if kind in ("electrolytic", "film_capacitor"):
+        return _capacitor(part)
+    if kind in DIODE_JUNCTIONS:
+        healthy = (Junction(part.id, node("anode"), node("cathode"), DIODE_JUNCTIONS[kind]),)
+        return _two_terminal(part, "anode", "cathode", healthy)
+    if kind == "zener":
+        return _zener(part)
+    if kind == "bridge":
+        return _bridge(part)
+    if kind == "mosfet":
+        return _two_terminal(part, "drain", "source",
+                             (Junction(f"{part.id}.body", node("source"), node("drain"), jn.BODY_DIODE),))
+    if kind == "bjt":
+        junctions = (Junction(f"{part.id}.be", node("base"), node("emitter"), jn.TRANSISTOR_JUNCTION),
+                     Junction(f"{part.id}.bc", node("base"), node("collector"), jn.TRANSISTOR_JUNCTION))
+        if part.mode == "short":  # collector to emitter, the junctions still there [practice]
+            return junctions + (Resistor(f"{part.id}.short", node("collector"), node("emitter"), SHORT_OHM),)
+        return _two_terminal(part, "collector", "emitter", junctions)
+    if kind == "controller":
+        healthy = (Junction(f"{part.id}.substrate", node("gnd"), node("vcc"), jn.IC_SUBSTRATE),
+                   Resistor(f"{part.id}.bias", node("vcc"), node("gnd"), CONTROLLER_VCC_OHM))
+        if part.mode == "dead":
+            return healthy
+        if part.mode == "short":
+            return (Resistor(f"{part.id}.short", node("vcc"), node("gnd"), SHORTED_CONTROLLER_OHM),)
+        return _two_terminal(part, "vcc", "gnd", healthy)
+    if kind == "optocoupler":
+        return _two_terminal(part, "anode", "cathode",
+                             (Junction(f"{part.id}.led", node("anode"), node("cathode"), jn.INFRARED_LED),))
+    if kind == "tl431":
+        return _two_terminal(part, "cathode", "anode",
+                             (Junction(f"{part.id}.substrate", node("anode"), node("cathode"),
+                                       jn.SHUNT_REFERENCE_SUBSTRATE),))
+    if kind == "transformer":
+        return _transformer(part)
+    raise ValueError(f"{part.id}: no cold model for a part of kind '{kind}'")  # pragma: no cover
