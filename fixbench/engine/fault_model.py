@@ -96,11 +96,11 @@ def _check_model(family: Family, ratings: Ratings, healthy: HealthyUnit, check: 
     rows, values = [], []
     if check.target_kind == "part":
         part = family.part(check.target_id)
-        expect = cold_expectation(part, check.instrument, ratings, dict(family.design))
+        expect = cold_expectation(part, check.instrument, ratings, family.design)
         classes = numeric_classes(check.instrument, expect)
         for hypothesis in hypotheses:
             mode = dict(hypothesis.modes).get(part.id, "ok")
-            value = cold_reading(part, mode, check.instrument, ratings, dict(family.design))
+            value = cold_reading(part, mode, check.instrument, ratings, family.design)
             values.append(value)
             rows.append(_class_probabilities(classes, value))
         healthy_outcome = None
@@ -108,7 +108,7 @@ def _check_model(family: Family, ratings: Ratings, healthy: HealthyUnit, check: 
         signal = check.target_id
         if signal not in healthy.numeric:
             raise EngineError(f"{family.source_file}: check '{check.id}' reads '{signal}', which the "
-                              f"'{family.design['drive']}' model does not produce")
+                              f"'{family.design.drive}' model does not produce")
         expect = healthy.numeric[signal]
         classes = numeric_classes(check.instrument, expect)
         for operation in operations:
@@ -124,7 +124,7 @@ def _check_model(family: Family, ratings: Ratings, healthy: HealthyUnit, check: 
         for operation in operations:
             if signal not in operation.outcomes:
                 raise EngineError(f"{family.source_file}: check '{check.id}' reads '{signal}', which the "
-                                  f"'{family.design['drive']}' model does not produce")
+                                  f"'{family.design.drive}' model does not produce")
             chances = operation.outcomes[signal]
             rows.append(np.array([chances.get(name, 0.0) for name in classes.names]))
             values.append(None)
@@ -150,8 +150,7 @@ def _groups(roots: tuple[str, ...], root_of: np.ndarray, prior: np.ndarray,
 
 def build_fault_model(family: Family, ratings: Ratings,
                       prior_counts: dict[str, int] | None = None) -> FaultModel:
-    design = dict(family.design)
-    healthy = healthy_unit(design, ratings)
+    healthy = healthy_unit(family.design, ratings)
     hypotheses = build_hypotheses(family, prior_counts)
     operations = tuple(operate(family, ratings, healthy, dict(h.modes)) for h in hypotheses)
     checks = tuple(_check_model(family, ratings, healthy, c, hypotheses, operations) for c in family.checks)

@@ -111,13 +111,12 @@ def _bulk(w: _Work) -> None:
         w.values.update(bulk_voltage=0.0, bulk_ripple=0.0, drain_peak=0.0)
         return
     peak = w.nominal("bulk_voltage")
-    capacitance = bulk_capacitance(w.ratings, dict(w.family.design))
+    capacitance = bulk_capacitance(w.ratings, w.family.design)
     if w.mode("bulk_capacitor") == "dried":
         capacitance *= DRIED_CAPACITANCE
     hz = w.ratings.mains_hz / (2.0 if w.flags["half_wave"] else 1.0)
-    source = w.family.design.get("source_ohm")
     rail = bulk_rail.rail_at_load(w.ratings.bench_mains, hz, capacitance, input_power(w.ratings),
-                                  float(source) if source is not None else None)
+                                  w.family.design.source_ohm)
     w.values.update(bulk_voltage=peak, bulk_ripple=rail.ripple)
     w.flags["bulk_sags"] = w.values["bulk_ripple"] > w.healthy.numeric["bulk_ripple"].high
 
@@ -128,7 +127,7 @@ def _startup_and_drive(w: _Work) -> None:
     if not w.flags["mains_ok"]:
         w.flags["drive"] = "none"
         return
-    if design["drive"] == "self_oscillating":
+    if design.drive == "self_oscillating":
         if w.mode("base_resistor") == "open" or w.mode("cutoff_transistor") == "short":
             w.flags["drive"] = "none"
         elif w.mode("drive_resistor") == "open" or w.mode("sense_resistor") == "open":
@@ -143,7 +142,7 @@ def _startup_and_drive(w: _Work) -> None:
     elif w.mode("start_resistor") == "open":
         w.flags["drive"], w.values["vcc_voltage"] = "none", 0.0
     elif w.mode("controller") == "dead":
-        w.flags["drive"], w.values["vcc_voltage"] = "latched", float(design["vcc_clamp_v"])
+        w.flags["drive"], w.values["vcc_voltage"] = "latched", design.vcc_clamp_v
     elif w.mode("vcc_capacitor") == "dried" or w.mode("aux_diode") != "ok":
         w.flags["drive"] = "bursting"  # starts, cannot hold Vcc until the aux winding takes over
     else:
@@ -156,11 +155,11 @@ def _switch_and_transfer(w: _Work) -> None:
     transfer = drive in ("running", "bursting")
     if w.mode("switch") == "open" or w.mode("gate_resistor") == "open" or w.mode("transformer") == "open":
         transfer = False
-    if w.family.design["drive"] == "controller" and w.mode("sense_resistor") == "open":
+    if w.family.design.drive == "controller" and w.mode("sense_resistor") == "open":
         transfer = False
     output_shorted = w.mode("output_rectifier") == "short" or w.mode("output_capacitor") == "short"
     no_secondary = w.mode("output_rectifier") == "open"
-    self_oscillating = w.family.design["drive"] == "self_oscillating"
+    self_oscillating = w.family.design.drive == "self_oscillating"
     if self_oscillating and drive in ("running", "bursting") and not transfer:
         drive = "stalled"  # no collector current, no feedback-winding drive: nothing restarts it
     elif drive == "running" and (not transfer or output_shorted or no_secondary):
@@ -201,18 +200,18 @@ def _control_signals(w: _Work) -> None:
     design, values, drive, loop = w.family.design, w.values, w.flags.get("drive", "none"), w.flags["loop"]
     f_sw = w.nominal("switching_frequency")
     running = drive == "running"
-    if design["drive"] == "controller":
-        start, stop, target = (float(design[k]) for k in ("start_v", "stop_v", "vcc_target_v"))
+    if design.drive == "controller":
+        start, stop, target = design.start_v, design.stop_v, design.vcc_target_v
         if drive == "bursting":
             values["vcc_voltage"] = (start + stop) / 2  # a meter averages the saw-tooth
         elif running:
-            values["vcc_voltage"] = min(target * (1.5 if loop == "open" else 1.0), float(design["vcc_clamp_v"]))
+            values["vcc_voltage"] = min(target * (1.5 if loop == "open" else 1.0), design.vcc_clamp_v)
         values.setdefault("vcc_voltage", 0.0)
         values["vcc_behaviour"] = values["vcc_voltage"]
     if drive == "running":
         # Feedback held full on: a PWM controller skips cycles (lower average rate); a ringing-choke
         # converter runs faster at light load [src: EP1150417, paragraphs 0002-0003].
-        light = 1.5 if design["drive"] == "self_oscillating" else 0.3
+        light = 1.5 if design.drive == "self_oscillating" else 0.3
         frequency = f_sw * (light if loop == "pulled_low" else 1.0)
     elif drive == "bursting":
         frequency = BURST_FREQUENCY * f_sw
@@ -222,7 +221,7 @@ def _control_signals(w: _Work) -> None:
         frequency = 0.0  # measured at the gate
     values["switching_frequency"] = frequency
     bulk = values.get("bulk_voltage", 0.0)
-    rating = float(design.get("switch_rating_v", 650.0))
+    rating = design.switch_rating_v
     if frequency == 0.0 or not w.flags.get("transfer"):
         values["drain_peak"] = bulk
     elif w.mode("clamp_diode") == "open":
@@ -253,7 +252,7 @@ def _control_signals(w: _Work) -> None:
         values["opto_led_voltage"] = 1.25 if out > 0 else 0.0
     else:
         values["opto_led_voltage"] = lit
-    if design["drive"] == "self_oscillating":
+    if design.drive == "self_oscillating":
         base = {"running": -0.3, "bursting": 0.2, "stalled": 0.7, "none": 0.0}[drive]
         values["base_voltage"] = base if w.flags["mains_ok"] else 0.0
 
@@ -346,13 +345,13 @@ def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[
 
 def _hiccup(w: _Work) -> Hiccup | None:
     """Vcc swing and period of a restarting controller, from its start-up parts."""
-    design = dict(w.family.design)
+    design = w.family.design
     caps, starts = w.family.parts_with_role("vcc_capacitor"), w.family.parts_with_role("start_resistor")
-    if design["drive"] != "controller" or not caps or not starts:
+    if design.drive != "controller" or not caps or not starts:
         return None
     capacitance = part_value(caps[0].value, "F", w.ratings, design)
     if w.modes.get(caps[0].id) == "dried":
         capacitance *= DRIED_CAPACITANCE
     r_start = part_value(starts[0].value, "ohm", w.ratings, design)
-    return hiccup(capacitance, float(design["start_v"]), float(design["stop_v"]), r_start,
+    return hiccup(capacitance, design.start_v, design.stop_v, r_start,
                   w.values["bulk_voltage"])

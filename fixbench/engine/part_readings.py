@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import math
 
+from fixbench.knowledge.design import Design
 from fixbench.knowledge.model import Part
 from fixbench.physics.expectation import Expectation
 from fixbench.physics.parts import cold_expectation
@@ -31,7 +32,7 @@ def _typical(expect: Expectation) -> float:
     return expect.high / 2
 
 
-def cold_reading(part: Part, mode: str, instrument: str, ratings: Ratings, design: dict) -> float:
+def cold_reading(part: Part, mode: str, instrument: str, ratings: Ratings, design: Design) -> float:
     """Predicted cold reading of ``part`` in ``mode`` ("ok" for healthy), SI units (inf for OL)."""
     healthy = cold_expectation(part, instrument, ratings, design)
     typical = _typical(healthy)

@@ -92,7 +92,7 @@ class SimulatedUnit:
         if check.target_kind == "part":
             part = self.model.family.part(check.target_id)
             value = cold_reading(part, self.modes.get(part.id, "ok"), check.instrument,
-                                 self.model.ratings, dict(self.model.family.design))
+                                 self.model.ratings, self.model.family.design)
         else:
             value = operation.values[check.target_id]
         if self.wrong_rate and self.rng.random() < self.wrong_rate:

@@ -1,13 +1,16 @@
-"""What the knowledge files describe, as plain frozen dataclasses.
+"""What the knowledge files describe, as plain frozen dataclasses, and the words they may use.
 
 A supply family is a set of stages joined by links, the parts inside each stage, the test points a
-probe can touch, the checks a technician can make, and the faults parts suffer. The engine and the
+probe can touch, the checks a technician can make, the faults parts suffer, and its design figures.
+The family files compose it from shared stage files (see :mod:`composition`). The engine and the
 physics read these; nothing here computes anything.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+
+from fixbench.knowledge.design import Design
 
 # Instruments a check can use, and the unit each reads in (None: an outcome is picked, not typed).
 INSTRUMENT_UNITS: dict[str, str | None] = {
@@ -34,6 +37,26 @@ STAGE_ROLES = (
 )
 LINK_KINDS = ("power", "control")
 SIDES = ("primary", "isolation", "secondary")
+# Part roles the operating model reads, each with the stage roles a part playing it may sit in.
+# A role outside this table would be silently ignored by the model, so the loader refuses it;
+# tests/knowledge checks the table against the roles the model asks for.
+PART_ROLES: dict[str, tuple[str, ...]] = {
+    "fuse": ("input",), "inrush_limiter": ("input",),
+    "bridge": ("rectifier",),
+    "bulk_capacitor": ("bulk",),
+    "start_resistor": ("startup",), "vcc_capacitor": ("startup",), "aux_diode": ("startup",),
+    "base_resistor": ("startup",),
+    "controller": ("drive",), "drive_resistor": ("drive",), "drive_capacitor": ("drive",),
+    "cutoff_transistor": ("drive",),
+    "switch": ("switch",), "gate_resistor": ("switch",), "sense_resistor": ("switch",),
+    "clamp_diode": ("clamp",), "clamp_resistor": ("clamp",),
+    "transformer": ("transformer",),
+    "output_rectifier": ("output_rectifier",),
+    "output_capacitor": ("output_filter",),
+    "optocoupler": ("feedback",), "shunt_reference": ("feedback",), "feedback_upper": ("feedback",),
+    "feedback_lower": ("feedback",),
+    "lead": ("lead",),
+}
 PART_KINDS = (
     "fuse", "thermistor", "bridge", "electrolytic", "film_capacitor", "resistor", "fast_diode",
     "rectifier_diode", "schottky", "zener", "mosfet", "bjt", "controller", "transformer",
@@ -47,6 +70,7 @@ class Stage:
     title: str
     role: str
     side: str
+    template: str = ""  # the stage file it was made from ("feedback/tl431_opto")
 
 
 @dataclass(frozen=True)
@@ -127,8 +151,8 @@ class Family:
     title: str
     summary: str
     examples: tuple[str, ...]
-    identify: dict[str, bool]
-    design: dict[str, object]
+    identify: dict[str, tuple[str, ...]]  # intake question id -> the answers this family's boards give
+    design: Design
     stages: tuple[Stage, ...]
     links: tuple[Link, ...]
     parts: tuple[Part, ...]
@@ -174,8 +198,28 @@ class Family:
 
 
 @dataclass(frozen=True)
+class Answer:
+    id: str
+    text: str  # as the technician picks it
+    board: str  # what such a board has, for saying why a family does not fit ("no optocoupler")
+
+
+@dataclass(frozen=True)
+class Question:
+    """One thing a technician can tell by looking at the board, asked at intake."""
+
+    id: str
+    text: str
+    answers: tuple[Answer, ...]
+
+    def answer(self, answer_id: str) -> Answer:
+        return next(a for a in self.answers if a.id == answer_id)
+
+
+@dataclass(frozen=True)
 class KnowledgeBase:
     families: dict[str, Family]
+    questions: tuple[Question, ...] = ()
 
     def family(self, family_id: str) -> Family:
         try:

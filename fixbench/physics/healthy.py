@@ -1,6 +1,6 @@
 """The live readings of a healthy unit: the value and band at each signal the checks observe.
 
-Computed from the ratings and the family's design block with the relations in bulk_rail, flyback,
+Computed from the ratings and the family's design figures with the relations in bulk_rail, flyback,
 semiconductors and outputs. Signals a check reads as an outcome (steady/cycling, lamp, symptoms)
 get the outcome a healthy unit shows.
 """
@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from fixbench.knowledge.design import Design
 from fixbench.physics import bulk_rail, flyback, outputs, semiconductors as semi
 from fixbench.physics.expectation import Expectation
 from fixbench.physics.ratings import Ratings
@@ -31,19 +32,17 @@ class HealthyUnit:
     figures: dict[str, Expectation]  # thresholds shown to the technician (start/stop Vcc...)
 
 
-def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
-    d = {k: v for k, v in design.items()}
+def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
     peak = bulk_rail.rectified_peak(ratings.bench_mains)
     peak_low = bulk_rail.rectified_peak(ratings.bench_low)
     peak_high = bulk_rail.rectified_peak(ratings.bench_high)
-    capacitance = bulk_capacitance(ratings, d)
+    capacitance = bulk_capacitance(ratings, design)
     p_in = input_power(ratings)
-    source_ohm = float(d["source_ohm"]) if "source_ohm" in d else None
-    rail = bulk_rail.rail_at_load(ratings.bench_mains, ratings.mains_hz, capacitance, p_in, source_ohm)
+    rail = bulk_rail.rail_at_load(ratings.bench_mains, ratings.mains_hz, capacitance, p_in, design.source_ohm)
     v_min, ripple = rail.v_min, rail.ripple
     out_low, out_high = outputs.output_window(ratings.output_v)
-    f_sw = float(d["switching_hz"]) if ratings.switching_hz is None else ratings.switching_hz
-    f_tol = float(d.get("switching_tolerance", 0.10))
+    f_sw = design.switching_hz if ratings.switching_hz is None else ratings.switching_hz
+    f_tol = design.switching_tolerance
     vor = flyback.reflected_voltage_design(ratings.universal or ratings.design_low > 150)
     numeric = {
         "bulk_voltage": Expectation(peak, peak_low, peak_high, "V"),
@@ -57,14 +56,14 @@ def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
         "residual_bulk": Expectation(0.0, None, RESIDUAL_SAFE_V, "V"),
         "bridge_ac": Expectation(ratings.bench_mains, ratings.bench_low, ratings.bench_high, "V"),
         "drain_peak": Expectation(flyback.drain_peak(peak, vor), peak + 0.5 * vor,
-                                  0.95 * float(d.get("switch_rating_v", 650.0)), "V"),
+                                  0.95 * design.switch_rating_v, "V"),
     }
     figures = {}
-    if d.get("feedback") == "opto_tl431":
+    if design.feedback == "opto_tl431":
         grade = semi.TL431_VREF["plain"]
         numeric["feedback_reference"] = Expectation(grade.typical, grade.low, grade.high, "V")
-    if d.get("drive") == "controller":
-        start, stop, target = float(d["start_v"]), float(d["stop_v"]), float(d["vcc_target_v"])
+    if design.drive == "controller":
+        start, stop, target = design.start_v, design.stop_v, design.vcc_target_v
         numeric["vcc_voltage"] = Expectation(target, stop + 0.5, target + VCC_RUN_HEADROOM, "V")
         figures["vcc_start"] = Expectation(start, None, None, "V")
         figures["vcc_stop"] = Expectation(stop, None, None, "V")
@@ -72,7 +71,7 @@ def healthy_unit(design: dict, ratings: Ratings) -> HealthyUnit:
         # regulation; on a scope at the aux diode's anode it swings to (Vo + VD) Na/Ns during the
         # flyback interval and to -Vbulk Na/Np while the switch conducts [textbook flyback relations].
         v_diode = AUX_DIODE_DROP
-        out_diode = SCHOTTKY_DROP if d.get("output_diode") == "schottky" else SILICON_DROP
+        out_diode = SCHOTTKY_DROP if design.output_diode == "schottky" else SILICON_DROP
         na_ns = flyback.aux_turns_for(target, ratings.output_v, out_diode, v_diode)
         ns_np = 1.0 / flyback.primary_to_secondary_ratio(vor, ratings.output_v, out_diode)
         flyback_v = (ratings.output_v + out_diode) * na_ns

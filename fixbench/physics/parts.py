@@ -5,6 +5,7 @@ Meter figures are for a handheld meter on the part in circuit unless the how-to 
 
 from __future__ import annotations
 
+from fixbench.knowledge.design import Design
 from fixbench.knowledge.model import Part
 from fixbench.physics import semiconductors as semi
 from fixbench.physics.capacitors import ELECTROLYTIC_TOLERANCE, esr_new_max, esr_suspect_above
@@ -28,17 +29,17 @@ VALUE_UNITS = {"fuse": "A", "thermistor": "ohm", "electrolytic": "F", "film_capa
                "resistor": "ohm", "transformer": "ohm", "zener": "V"}
 
 
-def value_of(part: Part, ratings: Ratings, design: dict) -> float | None:
+def value_of(part: Part, ratings: Ratings, design: Design) -> float | None:
     """The part's nominal value in SI units (capacitance, resistance, fuse current...)."""
     unit = VALUE_UNITS.get(part.kind)
     return part_value(part.value, unit, ratings, design) if unit else None
 
 
-def rated_voltage(part: Part, ratings: Ratings, design: dict) -> float:
+def rated_voltage(part: Part, ratings: Ratings, design: Design) -> float:
     return part_value(part.rated, "V", ratings, design) if part.rated else 25.0
 
 
-def cold_expectation(part: Part, instrument: str, ratings: Ratings, design: dict) -> Expectation:
+def cold_expectation(part: Part, instrument: str, ratings: Ratings, design: Design) -> Expectation:
     """What a healthy ``part`` reads with ``instrument`` on a cold check."""
     kind = part.kind
     value = value_of(part, ratings, design)

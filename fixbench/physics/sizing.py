@@ -9,6 +9,7 @@ from __future__ import annotations
 import math
 from typing import Callable
 
+from fixbench.knowledge.design import Design
 from fixbench.physics.capacitors import E12, nearest_preferred
 from fixbench.physics.ratings import Ratings
 
@@ -25,7 +26,7 @@ def input_power(ratings: Ratings) -> float:
 FUSE_SERIES = (0.5, 0.63, 0.8, 1.0, 1.25, 1.6, 2.0, 2.5, 3.15, 4.0, 5.0)  # IEC 60127 preferred ratings
 
 
-def fuse_rating(ratings: Ratings, design: dict) -> float:
+def fuse_rating(ratings: Ratings, design: Design) -> float:
     """Input rms current at low line with a capacitor-input power factor of about 0.55, times 2.5 for
     inrush, rounded up to a preferred fuse rating [practice]."""
     current = input_power(ratings) / (ratings.design_low * 0.55)
@@ -33,13 +34,13 @@ def fuse_rating(ratings: Ratings, design: dict) -> float:
     return next((f for f in FUSE_SERIES if f >= wanted), FUSE_SERIES[-1])
 
 
-def inrush_resistance(ratings: Ratings, design: dict) -> float:
+def inrush_resistance(ratings: Ratings, design: Design) -> float:
     """Cold resistance of the inrush thermistor: about 10 ohm in small chargers, 5 ohm above 30 W
     [practice]."""
     return 10.0 if ratings.output_w <= 30 else 5.0
 
 
-def bulk_capacitance(ratings: Ratings, design: dict) -> float:
+def bulk_capacitance(ratings: Ratings, design: Design) -> float:
     """The label value if known; otherwise 2 uF per input watt for universal or 100-120 V input and
     1 uF per watt for 230 V only [practice: 2-3 uF/W universal, about 1 uF/W 230 V only], to E6."""
     if ratings.bulk_f is not None:
@@ -48,15 +49,15 @@ def bulk_capacitance(ratings: Ratings, design: dict) -> float:
     return max(4.7e-6, nearest_preferred(per_watt * input_power(ratings)))
 
 
-def start_resistance(ratings: Ratings, design: dict) -> float:
+def start_resistance(ratings: Ratings, design: Design) -> float:
     """Start-up resistor that gives about 0.3 mA at the lowest rectified mains, enough for a
     controller's start-up current [practice; UC384x start-up current 0.5-1 mA max from memory]."""
-    start_v = float(design.get("start_v", 0.0))
+    start_v = design.start_v if design.start_v is not None else 0.0
     v_low = math.sqrt(2.0) * ratings.design_low
     return nearest_preferred((v_low - start_v) / 0.3e-3, E12)
 
 
-def sense_resistance(ratings: Ratings, design: dict) -> float:
+def sense_resistance(ratings: Ratings, design: Design) -> float:
     """Current-sense resistor for a 1 V current-limit threshold [src: UC3842 datasheet, current sense
     threshold 1 V] at a peak primary current of 2 * Pin / (Vbulk_min * Dmax), Dmax 0.45 [textbook
     discontinuous flyback], with 30 % margin."""
@@ -65,38 +66,38 @@ def sense_resistance(ratings: Ratings, design: dict) -> float:
     return nearest_preferred(1.0 / i_peak, E12)
 
 
-def primary_winding_resistance(ratings: Ratings, design: dict) -> float:
+def primary_winding_resistance(ratings: Ratings, design: Design) -> float:
     """DC resistance of a charger's primary winding: about 1-3 ohm, lower in bigger units [practice]."""
     return 2.0 if ratings.output_w <= 30 else 0.8
 
 
-def output_capacitance(ratings: Ratings, design: dict) -> float:
+def output_capacitance(ratings: Ratings, design: Design) -> float:
     """About 300 uF per output amp, at least 220 uF, to E6 [practice]."""
     return max(220e-6, nearest_preferred(300e-6 * ratings.output_a))
 
 
-def output_cap_voltage(ratings: Ratings, design: dict) -> float:
+def output_cap_voltage(ratings: Ratings, design: Design) -> float:
     """The smallest common rating with 25 % headroom over the output [practice]."""
     return next(v for v in (6.3, 10, 16, 25, 35, 50, 63, 100) if v >= 1.25 * ratings.output_v)
 
 
-def divider_upper(ratings: Ratings, design: dict) -> float:
+def divider_upper(ratings: Ratings, design: Design) -> float:
     """Upper divider resistor for a TL431 with a 10 kohm lower resistor: R1 = R2 (Vo/Vref - 1)
     [src: TI SLVS543, Vout = Vref (1 + R1/R2)]."""
     return round(10e3 * (ratings.output_v / 2.495 - 1.0), -1)
 
 
-def base_bias_resistance(ratings: Ratings, design: dict) -> float:
+def base_bias_resistance(ratings: Ratings, design: Design) -> float:
     """Base bias resistor of a self-oscillating switch from the bulk rail: a few megohm [practice]."""
     return 2.2e6 if ratings.design_low > 150 else 1.0e6
 
 
-def zener_voltage(ratings: Ratings, design: dict) -> float:
+def zener_voltage(ratings: Ratings, design: Design) -> float:
     """Zener that sets the output with an opto LED in series: Vo - 1.1 V (LED) [practice]."""
     return round(ratings.output_v - 1.1, 1)
 
 
-RULES: dict[str, Callable[[Ratings, dict], float]] = {
+RULES: dict[str, Callable[[Ratings, Design], float]] = {
     "fuse_rating": fuse_rating,
     "inrush_resistance": inrush_resistance,
     "bulk_capacitance": bulk_capacitance,
@@ -111,7 +112,7 @@ RULES: dict[str, Callable[[Ratings, dict], float]] = {
 }
 
 
-def part_value(text: str | None, unit: str, ratings: Ratings, design: dict) -> float | None:
+def part_value(text: str | None, unit: str, ratings: Ratings, design: Design) -> float | None:
     """A part's value in SI units from its file text: a fixed "22 uF" or a "rule:NAME"."""
     if text is None:
         return None

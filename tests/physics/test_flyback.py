@@ -69,7 +69,7 @@ def test_auxiliary_winding_figures_follow_the_turns_ratios():
 
     family = load_knowledge().family("pwm_flyback")
     unit = healthy_unit(family.design, parse_ratings({"mains": "230 V", "output": "5 V", "current": "2 A"}))
-    target = float(family.design["vcc_target_v"])
+    target = family.design.vcc_target_v
     # Vaux = (Vo + VD) Na/Ns - VDa with Na/Ns chosen for the Vcc design point [textbook flyback relations]
     assert unit.figures["aux_rectified"].nominal == pytest.approx(target)
     assert unit.figures["aux_flyback"].nominal == pytest.approx(target + 0.7)
