@@ -1,0 +1,91 @@
+"""Telling the family from the board: the intake's questions single out every family in at most
+three answers, and when no family fits, the closest ones are named with the reason."""
+
+from __future__ import annotations
+
+import re
+
+import pytest
+
+from fixbench.knowledge import KnowledgeError, load_knowledge
+from fixbench.knowledge.identify import MAX_TELLING_ANSWERS, identify, telling_answers
+
+
+@pytest.fixture(scope="module")
+def knowledge():
+    return load_knowledge()
+
+
+def _identify(knowledge, **answers):
+    return identify(list(knowledge.families.values()), knowledge.questions, answers)
+
+
+def test_eight_pin_chip_without_optocoupler_or_tl431_is_the_primary_side_family(knowledge):
+    """Issue 13: on main, "8-pin chip, no optocoupler, no TL431" got "No single family fits": the
+    primary-side family said it had no 8-pin chip. An 8-pin chip is a controller chip; primary-side
+    controllers come in 6- and 8-pin packages [practice]."""
+    found = _identify(knowledge, controller_chip="yes", optocoupler="no", tl431="no")
+    assert found.family is not None and found.family.id == "primary_side"
+    assert found.describe().startswith("\u2192 That board fits: Primary-side-regulated controller")
+
+
+@pytest.mark.parametrize("family_id", ("pwm_flyback", "primary_side", "self_oscillating"))
+def test_every_family_is_singled_out_by_at_most_three_answers(knowledge, family_id):
+    families = list(knowledge.families.values())
+    family = knowledge.family(family_id)
+    answers = telling_answers(family, families, knowledge.questions)
+    assert answers is not None and len(answers) <= MAX_TELLING_ANSWERS == 3
+    found = identify(families, knowledge.questions, answers)
+    assert found.family is family
+
+
+def test_no_family_fits_names_the_closest_and_why(knowledge):
+    # A chip that drives the transformer itself (integrated switch): no such family yet.
+    found = _identify(knowledge, controller_chip="yes", separate_switch="no", optocoupler="no", tl431="no")
+    assert found.family is None and not found.fitting
+    assert [family.id for family, _ in found.closest] == ["primary_side"]
+    text = found.describe()
+    assert text.startswith("No single family fits those answers. Closest: Primary-side-regulated")
+    assert "its boards have a separate power transistor; you saw no separate power transistor" in text
+
+
+def test_several_fitting_families_are_named_with_the_question_that_splits_them(knowledge):
+    found = _identify(knowledge, controller_chip="yes")
+    assert {f.id for f in found.fitting} == {"pwm_flyback", "primary_side"}
+    assert found.deciding is not None and found.deciding.id == "optocoupler"
+    assert "2 families fit" in found.describe()
+
+
+def test_no_answer_says_nothing(knowledge):
+    assert _identify(knowledge).describe() == ""
+
+
+def test_every_family_answers_every_question(knowledge_copy):
+    copy = knowledge_copy("self_oscillating")
+    copy.replace("families/self_oscillating.toml", 'pfc_stage = "no"\n', "")
+    with pytest.raises(KnowledgeError, match=re.escape(
+            "self_oscillating.toml: identify.pfc_stage: missing: every family answers every intake question")):
+        copy.load()
+
+
+def test_an_answer_the_question_does_not_offer(knowledge_copy):
+    copy = knowledge_copy("self_oscillating")
+    copy.replace("families/self_oscillating.toml", 'tl431 = "no"', 'tl431 = "maybe"')
+    with pytest.raises(KnowledgeError, match=re.escape(
+            "self_oscillating.toml: identify.tl431: 'maybe' is not an answer to it (use yes, no)")):
+        copy.load()
+
+
+def test_a_family_whose_boards_vary_gives_several_answers(knowledge_copy):
+    copy = knowledge_copy("self_oscillating", "pwm_flyback")
+    copy.replace("families/self_oscillating.toml", 'tl431 = "no"', 'tl431 = ["no", "yes"]')
+    loaded = copy.load()
+    assert loaded.family("self_oscillating").identify["tl431"] == ("no", "yes")
+
+
+def test_a_catalogue_with_two_families_the_questions_cannot_tell_apart(knowledge_copy):
+    copy = knowledge_copy("self_oscillating", "primary_side")
+    copy.replace("families/primary_side.toml", 'controller_chip = "yes"', 'controller_chip = "no"')
+    copy.replace("families/primary_side.toml", 'optocoupler = "no"', 'optocoupler = "yes"')
+    with pytest.raises(KnowledgeError, match=re.escape("identify: no 3 answers to the intake's questions single out")):
+        copy.load()
