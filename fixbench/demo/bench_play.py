@@ -23,6 +23,7 @@ from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.engine.readings import read
 from fixbench.engine.repair_order import REPLACE_MINUTES
 from fixbench.engine.simulate import simulated_unit
+from fixbench.knowledge.design import Design
 from fixbench.knowledge.model import Family, Part
 from fixbench.physics.parts import VALUE_UNITS, rated_voltage, value_of
 from fixbench.physics.ratings import Ratings, parse_ratings
@@ -157,7 +158,7 @@ def _replaced(family: Family, ratings: Ratings, part_id: str, fault_id: str | No
                     value_fitted=value_fitted(part, ratings, family.design))
 
 
-def value_fitted(part: Part, ratings: Ratings, design: dict) -> str | None:
+def value_fitted(part: Part, ratings: Ratings, design: Design) -> str | None:
     """What a technician writes down for a new part: its value, with a capacitor's voltage rating
     ("22 uF 50 V"); None for a part bought by type (semiconductors, controllers, leads) and for a
     transformer, whose value in the family file is its winding resistance, not a marking."""

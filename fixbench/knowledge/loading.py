@@ -69,7 +69,7 @@ def parse_family(path: Path, shared_checks: list[model.Check], templates: dict[s
         links.append(model.Link(row.get("from", str), row.get("to", str),
                                 row.get("kind", str, choices=model.LINK_KINDS)))
     apply_check_order(reader, made.checks, made.origins)
-    for i, check in enumerate(shared_checks):
+    for i in range(len(shared_checks)):
         made.origins[f"checks[{len(made.checks) + i}]"] = (f"shared_checks.toml: checks[{i}]", path.name)
     family = model.Family(
         id=family_id, title=reader.get("title", str), summary=reader.get("summary", str),

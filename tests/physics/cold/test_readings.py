@@ -34,7 +34,7 @@ def test_good_upper_fb_resistor_reads_it_in_parallel_with_the_lower_one():
     # the upper FB resistor at 37.6-49.4 kohm, its value out of circuit.
     family = load_knowledge().family("primary_side")
     ratings = parse_ratings({"mains": "120 V", "output": "5 V", "current": "2 A"})
-    textbook = cold_expectation(family.part("R5"), "ohmmeter", ratings, dict(family.design))
+    textbook = cold_expectation(family.part("R5"), "ohmmeter", ratings, family.design)
     assert (textbook.low, textbook.high) == pytest.approx((37.6e3, 49.35e3))
     # On the board the aux winding closes R6 across R5: R5 || (R6 + winding) = 8.25 kohm.
     reading = ohms(boards.primary_side(), "aux", "fb")
