@@ -15,7 +15,7 @@ from typing import Any
 from sqlalchemy import select
 
 from fixbench.store.case_flags import refresh_comebacks
-from fixbench.store.cases import utc_now
+from fixbench.store.cases import locked_case, utc_now
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError, checked_text
 from fixbench.store.models import OUTCOMES, Amendment, Case
@@ -38,9 +38,7 @@ def amend_closed_case(store: Store, case_id: int, changes: Mapping[str, Any], *,
     if "outcome" in changes and changes["outcome"] not in OUTCOMES:
         raise StoreInputError(f"an outcome is one of {', '.join(OUTCOMES)}")
     with store.session() as session:
-        case = session.get(Case, case_id)
-        if case is None:
-            raise StoreInputError(f"there is no case {case_id}")
+        case = locked_case(session, case_id)
         if case.status != "closed":
             raise StoreInputError(f"case {case.ticket_ref} is still open; change it directly")
         rows = []
@@ -63,7 +61,7 @@ def amend_closed_case(store: Store, case_id: int, changes: Mapping[str, Any], *,
 
 def amendments_of(store: Store, case_id: int) -> list[Amendment]:
     """The case's amendments, oldest first."""
-    with store.session() as session:
+    with store.reading() as session:
         return list(session.scalars(select(Amendment).where(Amendment.case_id == case_id)
                                     .order_by(Amendment.id)))
 
@@ -73,7 +71,7 @@ def original_value(store: Store, case_id: int, field: str) -> Any:
     first = next((a for a in amendments_of(store, case_id) if a.field == field), None)
     if first is not None:
         return json.loads(first.old_value)
-    with store.session() as session:
+    with store.reading() as session:
         return getattr(session.get(Case, case_id), field)
 
 
@@ -81,9 +79,7 @@ def delete_case(store: Store, case_id: int, *, passphrase: str | None) -> None:
     """Delete a case and everything recorded under it (owner only)."""
     require_owner(store, passphrase)
     with store.session() as session:
-        case = session.get(Case, case_id)
-        if case is None:
-            raise StoreInputError(f"there is no case {case_id}")
+        case = locked_case(session, case_id)
         device_id = case.device_id
         session.delete(case)
         session.flush()

@@ -1,4 +1,5 @@
-"""The case list as the ui shows it: one page at a time, sorted in the database by any column."""
+"""The case lists as the ui shows them, one page at a time: every case sorted in the database by
+any column, and the cases still open at the bench, newest first."""
 
 from __future__ import annotations
 
@@ -9,9 +10,10 @@ from sqlalchemy import func, select
 
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import Case, Device, Technician
+from fixbench.store.models import Case, Device, ReadingRow, Technician
 
 PAGE_SIZE = 200
+OPEN_STATUSES = ("intake", "diagnosing", "repairing", "verifying")
 
 # column name shown -> what it sorts by. Ties break on case id so pages never overlap.
 SORTABLE = {
@@ -73,3 +75,37 @@ def rows_of_page(store: Store, page_ids, order) -> list[CaseRow]:
              .order_by(*order))
     with store.read_connection() as connection:
         return [CaseRow(*row) for row in connection.execute(query)]
+
+
+@dataclass(frozen=True)
+class OpenCaseRow:
+    id: int
+    ticket: str
+    make: str
+    model: str
+    family_id: str
+    status: str
+    technician: str
+    opened_at: datetime
+    readings: int
+
+
+def open_case_count(store: Store) -> int:
+    with store.reading() as session:
+        return session.scalar(select(func.count()).select_from(Case)
+                              .where(Case.status.in_(OPEN_STATUSES)))
+
+
+def open_cases(store: Store, offset: int = 0, limit: int = 200) -> list[OpenCaseRow]:
+    """Cases not yet closed, newest first (an index walk on status, then the page's names)."""
+    counts = (select(ReadingRow.case_id, func.count().label("n")).group_by(ReadingRow.case_id)
+              .subquery())
+    query = (select(Case.id, Case.ticket_ref, Device.make, Device.model, Case.family_id,
+                    Case.status, Technician.name, Case.opened_at, func.coalesce(counts.c.n, 0))
+             .join(Device, Device.id == Case.device_id)
+             .join(Technician, Technician.id == Case.technician_id)
+             .outerjoin(counts, counts.c.case_id == Case.id)
+             .where(Case.status.in_(OPEN_STATUSES))
+             .order_by(Case.opened_at.desc(), Case.id.desc()).offset(offset).limit(limit))
+    with store.read_connection() as connection:
+        return [OpenCaseRow(*row) for row in connection.execute(query)]

@@ -1,8 +1,10 @@
-"""Recording a case as it happens at the bench: open, readings with suspects, repairs, close.
+"""Recording a case as it happens at the bench: open, readings with suspects, undo, a check that
+cannot be made, the cautions acknowledged, repairs, verification, close.
 
 Every function here is one transaction that commits before it returns, so a reading is kept the
 moment it is entered and a killed process loses nothing already returned. A closed case refuses
-all of these; corrections go through :mod:`fixbench.store.amendments`.
+all of these; corrections go through :mod:`fixbench.store.amendments`. Each write takes its case
+through :func:`case_for_writing`, the one way a case is opened for writing.
 
 Status moves forward through intake -> diagnosing -> repairing -> verifying -> closed; a failed
 verification may send it back to repairing, and a case may be closed from any open status (a
@@ -21,8 +23,9 @@ from sqlalchemy.orm import Session
 from fixbench.store.case_flags import refresh_comebacks
 from fixbench.store.database import Store
 from fixbench.store.errors import ClosedCaseError, StoreInputError, checked_text
-from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, ReadingRow, RepairAction, SuspectRow,
-                                   Verification)
+from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, CautionAcknowledgement, ReadingRow,
+                                   RepairAction, SkippedCheck, SuspectRow, Verification,
+                                   WithdrawnReading)
 
 # status -> statuses it may move to (besides "closed", which close_case does).
 NEXT_STATUS: dict[str, tuple[str, ...]] = {
@@ -80,10 +83,19 @@ def open_case(store: Store, *, ticket_ref: str, device_id: int, technician_id: i
         return case.id
 
 
-def _open_case(session: Session, case_id: int) -> Case:
+def locked_case(session: Session, case_id: int) -> Case:
+    """The case row, locked for the rest of the transaction where the database locks rows
+    (PostgreSQL: SELECT ... FOR UPDATE, so two benches writing one case take turns; SQLite's
+    BEGIN IMMEDIATE already holds the whole file)."""
     case = session.get(Case, case_id, with_for_update=session.bind.dialect.name != "sqlite")
     if case is None:
         raise StoreInputError(f"there is no case {case_id}")
+    return case
+
+
+def case_for_writing(session: Session, case_id: int) -> Case:
+    """An open case, locked, for a bench write; a closed case is refused (amend it instead)."""
+    case = locked_case(session, case_id)
     if case.status == "closed":
         raise ClosedCaseError(f"case {case.ticket_ref} is closed; record an amendment instead")
     return case
@@ -94,7 +106,7 @@ def add_reading(store: Store, case_id: int, *, check_id: str, typed: str, value:
                 entered_at: datetime | None = None) -> int:
     """Keep one reading (as typed and as parsed) with the suspects ranked after it."""
     with store.session() as session:
-        case = _open_case(session, case_id)
+        case = case_for_writing(session, case_id)
         last = session.scalar(select(func.max(ReadingRow.seq)).where(ReadingRow.case_id == case_id))
         reading = ReadingRow(case_id=case_id, seq=(last or 0) + 1,
                           check_id=checked_text(check_id, "check"),
@@ -114,10 +126,54 @@ def add_reading(store: Store, case_id: int, *, check_id: str, typed: str, value:
         return reading.id
 
 
+def withdraw_last_reading(store: Store, case_id: int, at: datetime | None = None) -> int | None:
+    """Take back the newest reading still standing ("undo"); its id, or None if there was none.
+    The case's first suspect is set again from the newest reading still standing."""
+    withdrawn = select(WithdrawnReading.reading_id)
+    with store.session() as session:
+        case = case_for_writing(session, case_id)
+        standing = list(session.scalars(select(ReadingRow)
+                                        .where(ReadingRow.case_id == case_id,
+                                               ReadingRow.id.not_in(withdrawn))
+                                        .order_by(ReadingRow.seq)))
+        if not standing:
+            return None
+        last = standing[-1]
+        session.add(WithdrawnReading(reading_id=last.id, withdrawn_at=at or utc_now()))
+        before = standing[-2] if len(standing) > 1 else None
+        top = None
+        if before is not None:
+            top = session.scalar(select(SuspectRow.fault_id)
+                                 .where(SuspectRow.reading_id == before.id, SuspectRow.rank == 1))
+        case.top_suspect_fault = top
+        return last.id
+
+
+def skip_check(store: Store, case_id: int, check_id: str, at: datetime | None = None) -> int:
+    """Keep a check the technician could not make on this unit ("cannot measure")."""
+    with store.session() as session:
+        case_for_writing(session, case_id)
+        row = SkippedCheck(case_id=case_id, check_id=checked_text(check_id, "check"),
+                           skipped_at=at or utc_now())
+        session.add(row)
+        session.flush()
+        return row.id
+
+
+def acknowledge_cautions(store: Store, case_id: int, technician_id: int,
+                         at: datetime | None = None) -> None:
+    """Keep that the cautions of this case were read; a second acknowledgement keeps the first."""
+    with store.session() as session:
+        case_for_writing(session, case_id)
+        if session.get(CautionAcknowledgement, case_id) is None:
+            session.add(CautionAcknowledgement(case_id=case_id, technician_id=technician_id,
+                                               acknowledged_at=at or utc_now()))
+
+
 def move_case(store: Store, case_id: int, status: str) -> None:
     """Move an open case to the next status it may take."""
     with store.session() as session:
-        case = _open_case(session, case_id)
+        case = case_for_writing(session, case_id)
         if status not in NEXT_STATUS[case.status]:
             raise StoreInputError(f"a case in {case.status} cannot move to {status}")
         case.status = status
@@ -145,7 +201,7 @@ def add_repair_action(store: Store, case_id: int, *, part_id: str, action: str,
         raise StoreInputError("a replaced part has no test result; keep the test as its own "
                               "'tested' line")
     with store.session() as session:
-        case = _open_case(session, case_id)
+        case = case_for_writing(session, case_id)
         if case.status in ("intake", "diagnosing", "verifying"):
             case.status = "repairing"
         repair = RepairAction(case_id=case_id, part_id=checked_text(part_id, "part"),
@@ -163,7 +219,7 @@ def add_verification(store: Store, case_id: int, *, check_id: str, typed: str,
                      entered_at: datetime | None = None) -> int:
     """Keep a reading taken after the repair; moves the case to verifying."""
     with store.session() as session:
-        case = _open_case(session, case_id)
+        case = case_for_writing(session, case_id)
         case.status = "verifying"
         if not passed:
             case.failed_verification = True
@@ -184,7 +240,7 @@ def close_case(store: Store, case_id: int, *, outcome: str, bench_minutes: int,
     if bench_minutes < 0:
         raise StoreInputError("bench minutes cannot be negative")
     with store.session() as session:
-        case = _open_case(session, case_id)
+        case = case_for_writing(session, case_id)
         case.status = "closed"
         case.outcome = outcome
         case.bench_minutes = bench_minutes

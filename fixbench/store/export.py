@@ -18,9 +18,10 @@ from typing import Any, TextIO
 
 from sqlalchemy import and_, func, select
 
+from fixbench.store.case_record import load_case_record
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import (Case, Device, ReadingRow, RepairAction, Technician, Verification,
+from fixbench.store.models import (Case, Device, ReadingRow, RepairAction, Technician,
                                    WithdrawnReading)
 from fixbench.store.owner import require_owner
 
@@ -82,49 +83,38 @@ def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
 
 def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
     """One case in the form ``fixbench diagnose`` reads, plus its record."""
-    with store.session() as session:
-        if isinstance(ticket_or_id, int):
-            case = session.get(Case, ticket_or_id)
-        else:
-            case = session.scalar(select(Case).where(Case.ticket_ref == ticket_or_id))
-        if case is None:
-            raise StoreInputError(f"there is no case {ticket_or_id}")
-        repairs = session.scalars(select(RepairAction).where(RepairAction.case_id == case.id)
-                                  .order_by(RepairAction.id))
-        checks = session.scalars(select(Verification).where(Verification.case_id == case.id)
-                                 .order_by(Verification.id))
-        withdrawn = set(session.scalars(select(WithdrawnReading.reading_id)
-                                        .join(ReadingRow, ReadingRow.id == WithdrawnReading.reading_id)
-                                        .where(ReadingRow.case_id == case.id)))
-        standing = [r for r in case.readings if r.id not in withdrawn]
-        return {
-            "format": CASE_JSON_FORMAT,
-            "version": CASE_JSON_VERSION,
-            "family": case.family_id,
-            "ratings": dict(case.ratings),
-            "readings": [{"check": r.check_id, "value": r.typed} for r in standing],
-            "record": {
-                "ticket": case.ticket_ref,
-                "device": {"make": case.device.make, "model": case.device.model,
-                           "kind": case.device.kind},
-                "technician": case.technician.name,
-                "status": case.status,
-                "outcome": case.outcome,
-                "opened_at": _iso(case.opened_at),
-                "closed_at": _iso(case.closed_at),
-                "bench_minutes": case.bench_minutes,
-                "confirmed": {"fault": case.confirmed_fault, "part": case.confirmed_part,
-                              "stage": case.confirmed_stage},
-                "suspects_after_each_reading": [
-                    [[s.fault_id, s.probability] for s in r.suspects] for r in standing],
-                "withdrawn_readings": [{"check": r.check_id, "value": r.typed}
-                                       for r in case.readings if r.id in withdrawn],
-                "repairs": [{"part": a.part_id, "fault": a.fault_id, "action": a.action,
-                             "parts_cost_cents": a.parts_cost_cents} for a in repairs],
-                "verification": [{"check": v.check_id, "reading": v.typed, "passed": v.passed}
-                                 for v in checks],
-            },
-        }
+    if isinstance(ticket_or_id, int):
+        case = load_case_record(store, ticket_or_id)
+    else:
+        case = load_case_record(store, ticket=ticket_or_id)
+    standing = case.standing_readings
+    return {
+        "format": CASE_JSON_FORMAT,
+        "version": CASE_JSON_VERSION,
+        "family": case.family_id,
+        "ratings": dict(case.ratings),
+        "readings": [{"check": r.check_id, "value": r.typed} for r in standing],
+        "record": {
+            "ticket": case.ticket,
+            "device": {"make": case.make, "model": case.model, "kind": case.kind},
+            "technician": case.technician,
+            "status": case.status,
+            "outcome": case.outcome,
+            "opened_at": _iso(case.opened_at),
+            "closed_at": _iso(case.closed_at),
+            "bench_minutes": case.bench_minutes,
+            "confirmed": {"fault": case.confirmed_fault, "part": case.confirmed_part,
+                          "stage": case.confirmed_stage},
+            "suspects_after_each_reading": [
+                [[s.fault_id, s.probability] for s in r.suspects] for r in standing],
+            "withdrawn_readings": [{"check": r.check_id, "value": r.typed}
+                                   for r in case.withdrawn_readings],
+            "repairs": [{"part": a.part_id, "fault": a.fault_id, "action": a.action,
+                         "parts_cost_cents": a.cost_cents} for a in case.repairs],
+            "verification": [{"check": v.check_id, "reading": v.typed, "passed": v.passed}
+                             for v in case.verifications],
+        },
+    }
 
 
 def _iso(moment: datetime | None) -> str | None:

@@ -37,7 +37,7 @@ def _derive(passphrase: str, salt: bytes, n: int, r: int, p: int) -> bytes:
 
 
 def has_owner_passphrase(store: Store) -> bool:
-    with store.session() as session:
+    with store.reading() as session:
         return session.scalar(select(OwnerSecret.id)) is not None
 
 
@@ -62,7 +62,7 @@ def require_owner(store: Store, passphrase: str | None) -> None:
     The message is the same whether no passphrase is set, none was given, or a guess was wrong,
     and a wrong guess pays the same scrypt cost as a right one.
     """
-    with store.session() as session:
+    with store.reading() as session:
         secret = session.scalar(select(OwnerSecret))
     if secret is None:
         raise OwnerRequired("no owner passphrase is set for this shop; the owner must set one first")

@@ -31,7 +31,7 @@ def technicians(store: Store, role: str | None = None) -> list[Technician]:
     query = select(Technician).order_by(Technician.name)
     if role is not None:
         query = query.where(Technician.role == role)
-    with store.session() as session:
+    with store.reading() as session:
         return list(session.scalars(query))
 
 

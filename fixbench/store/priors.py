@@ -17,5 +17,5 @@ def confirmed_fault_counts(session_or_store: Session | Store, family_id: str) ->
              .group_by(Case.confirmed_fault))
     if isinstance(session_or_store, Session):
         return {fault: count for fault, count in session_or_store.execute(query)}
-    with session_or_store.session() as session:
+    with session_or_store.reading() as session:
         return {fault: count for fault, count in session.execute(query)}

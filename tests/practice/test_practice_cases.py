@@ -8,6 +8,7 @@ from fixbench.store import open_store
 from fixbench.store.cases import close_case, open_case
 from fixbench.store.people import add_device, add_practice_attempt, add_technician
 from fixbench.store.practice_cases import attempts_of, replayable_cases, trainee_summaries
+from fixbench.workflows.practice import kept_attempts
 
 
 def test_closed_cases_are_offered_without_who_or_whose(tmp_path):
@@ -55,5 +56,6 @@ def test_coach_use_and_a_blown_fuse_are_kept_beside_the_scenario_id(tmp_path):
     blown, clean = attempts_of(store, ada)
     assert (blown.scenario, blown.coach_used, blown.fuse_blown) == ("drawn:easy:f:a:s1", True, True)
     assert (clean.coach_used, clean.fuse_blown) == (False, False)  # the defaults
+    blown, clean = kept_attempts(store, ada)  # as practice reads them
     assert blown.band == "Keep practising" and clean.band == "Bench-ready"
     store.close()

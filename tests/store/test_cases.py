@@ -7,10 +7,15 @@ import math
 import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
-from sqlalchemy import func, select
+from sqlalchemy import func, select, text
+from sqlalchemy.exc import OperationalError
 
-from fixbench.store.cases import (RankedSuspect, add_reading, add_repair_action,
-                                  add_verification, close_case, move_case, open_case)
+from fixbench.store import open_store
+from fixbench.store.cases import (RankedSuspect, acknowledge_cautions, add_reading,
+                                  add_repair_action, add_verification, case_for_writing,
+                                  close_case, move_case, open_case, skip_check,
+                                  withdraw_last_reading)
+from fixbench.store.people import add_device, add_technician
 from fixbench.store.errors import ClosedCaseError, StoreInputError
 from fixbench.store.models import Case, ReadingRow, RepairAction, SuspectRow
 from tests.store.conftest import RATINGS, START, record_case
@@ -140,3 +145,44 @@ def test_any_unicode_reading_text_round_trips(bench, typed, check, fault):
         assert (reading.typed, reading.check_id) == (typed, check)
         assert session.scalar(select(SuspectRow.fault_id).where(SuspectRow.reading_id == reading_id)) \
             == fault
+
+
+@pytest.mark.postgres
+def test_a_case_opened_for_writing_is_locked_against_another_bench_on_postgresql(pg_database_url):
+    """Every bench write takes its case through case_for_writing; on PostgreSQL the row stays
+    locked until that write commits, so a second bench writing the same case waits its turn
+    (SELECT ... FOR UPDATE, PostgreSQL manual "Explicit Locking", row-level locks)."""
+    store = open_store(pg_database_url)
+    try:
+        tech = add_technician(store, "Ada Tester")
+        device = add_device(store, make="Quillon", model="QX-5", kind="charger", label_ratings={})
+        case_id = _open(store, tech, device)
+        with store.session() as session:
+            case_for_writing(session, case_id)
+            with store.engine.connect() as other, pytest.raises(OperationalError):
+                other.execute(text("SELECT id FROM cases WHERE id = :id FOR UPDATE NOWAIT"),
+                              {"id": case_id})
+        with store.engine.connect() as other:  # committed: the lock is gone
+            assert other.execute(text("SELECT id FROM cases WHERE id = :id FOR UPDATE NOWAIT"),
+                                 {"id": case_id}).scalar() == case_id
+    finally:
+        store.close()
+
+
+def test_every_bench_write_refuses_a_closed_case_through_the_one_opener(bench):
+    store, tech, device = bench
+    case_id = record_case(store, tech, device, ticket="L-1", opened=START)
+    writes = [
+        lambda: add_reading(store, case_id, check_id="x", typed="1", value=None, unit=None,
+                            outcome="yes", suspects=[]),
+        lambda: add_repair_action(store, case_id, part_id="Q1", action="replaced"),
+        lambda: add_verification(store, case_id, check_id="x", typed="1", value=None, unit=None,
+                                 outcome="yes", passed=True),
+        lambda: move_case(store, case_id, "repairing"),
+        lambda: skip_check(store, case_id, "x"),
+        lambda: withdraw_last_reading(store, case_id),
+        lambda: acknowledge_cautions(store, case_id, tech),
+    ]
+    for write in writes:
+        with pytest.raises(ClosedCaseError, match="record an amendment instead"):
+            write()

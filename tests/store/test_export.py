@@ -74,7 +74,7 @@ def test_case_json_lists_repairs(bench):
 
 def test_a_reading_taken_back_is_left_out_of_the_case_file(tmp_path):
     from fixbench.store import open_store
-    from fixbench.store.bench_log import withdraw_last_reading
+    from fixbench.store.cases import withdraw_last_reading
     from fixbench.store.cases import add_reading, open_case
     from fixbench.store.export import case_as_json
     from fixbench.store.people import add_device, add_technician
