@@ -12,7 +12,7 @@ from typing import TYPE_CHECKING
 
 if TYPE_CHECKING:
     from fixbench.knowledge import KnowledgeBase
-    from fixbench.store import Store
+    from fixbench.workflows.shop import Store
 
 
 def _load_knowledge() -> "KnowledgeBase":

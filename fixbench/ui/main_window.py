@@ -92,22 +92,21 @@ class MainWindow(QMainWindow):
         ShopSettingsDialog(self.context, self).exec()
 
     def open_demo_shop(self) -> None:
-        from fixbench.store import StoreError, open_store
-        from fixbench.store import location
+        from fixbench.store.errors import StoreError
+        from fixbench.workflows.shop import open_demo_shop
 
         # A fresh copy in the user data folder: the shipped file stays as built, and every visit to
         # the demo starts from the same history.
-        path = location.demo_working_copy()
         bench = self.screens.get("Bench")
-        if path is None or not path.exists():
-            if bench is not None:
-                bench.status.setText("\u26a0 The demo shop is not installed with this copy of fixbench.")
-            return
         try:
-            store = open_store(path)
+            store = open_demo_shop()
         except StoreError as err:
             if bench is not None:
                 bench.status.setText(f"\u26a0 {err}")
+            return
+        if store is None:
+            if bench is not None:
+                bench.status.setText("\u26a0 The demo shop is not installed with this copy of fixbench.")
             return
         old = self.context
         self.attach(AppContext(store, old.knowledge))
@@ -121,15 +120,9 @@ def _title(context: AppContext) -> str:
 
 def open_context(db: str | None) -> AppContext:
     """Back up the file if due, open and migrate the store, load the knowledge (off the GUI thread)."""
-    from fixbench.store import open_store
-    from fixbench.store.backup import backup_if_due
-    from fixbench.store.location import resolve_url, sqlite_path
+    from fixbench.workflows.shop import open_shop
 
-    path = sqlite_path(resolve_url(db))
-    if path is not None and path.exists() and path.stat().st_size > 0:
-        backup_if_due(path)
-    store = open_store(db)
-    context = AppContext(store)
+    context = AppContext(open_shop(db))
     importlib.import_module("fixbench.ui.bench.screen")  # the import work, not the widgets
     return context
 
@@ -149,7 +142,7 @@ def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None
         window.attach(context)
 
     def failed(err: Exception) -> None:
-        from fixbench.store import StoreError
+        from fixbench.store.errors import StoreError
 
         if isinstance(err, StoreError):
             window.show_problem(f"The shop's database was not opened.\n\n{err}")

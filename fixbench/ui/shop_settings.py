@@ -10,12 +10,10 @@ from __future__ import annotations
 from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QFormLayout, QGroupBox, QLabel, QLineEdit,
                                QPlainTextEdit, QVBoxLayout)
 
-from fixbench.store import StoreError
-from fixbench.store.bench_log import get_setting, set_setting
-from fixbench.store.owner import has_owner_passphrase, set_owner_passphrase
+from fixbench.store.errors import StoreError
 from fixbench.ui.context import AppContext
-
-FOOTER_KEY = "report_footer"
+from fixbench.workflows.shop import (has_owner_passphrase, set_owner_passphrase, set_shop_footer,
+                                     shop_footer)
 
 
 class ShopSettingsDialog(QDialog):
@@ -24,7 +22,7 @@ class ShopSettingsDialog(QDialog):
         self.context = context
         self.setWindowTitle("Shop settings")
         store = context.store
-        self.footer = QPlainTextEdit(get_setting(store, FOOTER_KEY, "") or "")
+        self.footer = QPlainTextEdit(shop_footer(store))
         self.footer.setPlaceholderText("shop name, address, phone, warranty terms: printed at the foot of "
                                        "every customer job report")
         self.footer.setTabChangesFocus(True)
@@ -77,7 +75,7 @@ class ShopSettingsDialog(QDialog):
                 self.current.clear() if self.has_passphrase else self.new.clear()
                 return
         try:
-            set_setting(store, FOOTER_KEY, self.footer.toPlainText().strip())
+            set_shop_footer(store, self.footer.toPlainText().strip())
         except StoreError as err:
             self.message.setText(f"\u26a0 {err}")
             return

@@ -46,7 +46,7 @@ def time_reading_updates(store, readings: int) -> dict:
     from fixbench.engine import simulate_readings
     from fixbench.physics.ratings import parse_ratings
     from fixbench.ui.main_window import MainWindow
-    from fixbench.ui.bench.records import IntakeForm
+    from fixbench.workflows.intake import IntakeForm
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     window = MainWindow(AppContext(store))
@@ -99,7 +99,7 @@ def time_owner_screens(store) -> dict:
     """Open the History and Figures screens on a filled ``store`` and time them."""
     from fixbench.ui.review.figures_screen import FiguresScreen
     from fixbench.ui.review.history import HistoryScreen
-    from fixbench.store.case_filters import CaseFilter
+    from fixbench.workflows.review import CaseFilter
 
     app = QApplication.instance() or QApplication([])
     context = AppContext(store)

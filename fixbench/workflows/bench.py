@@ -1,8 +1,10 @@
-"""The bench's work against the engine and the store, as plain functions (no Qt).
+"""The bench's work on an open case against the engine and the store: resume it, take a reading,
+skip or undo one, acknowledge the cautions, repair, verify, close.
 
-The controller runs each of these off the GUI thread. Each one that writes keeps its step in one
-committed transaction before it returns, and computes what the screen will show next (suspects,
-stage chances, next step, conclusion) so the GUI thread only reads cached results.
+The bench controller runs each of these off the GUI thread. Each one that writes keeps its step in
+one committed transaction before it returns, and computes what the screen will show next
+(suspects, stage chances, next step, conclusion) so the GUI thread only reads cached results.
+Opening a new case at intake is :mod:`fixbench.workflows.intake`.
 """
 
 from __future__ import annotations
@@ -12,25 +14,16 @@ import traceback
 from dataclasses import dataclass, replace
 from datetime import datetime
 
-from fixbench.engine import start_diagnosis
+from fixbench.engine import DiagnosisState, start_diagnosis
 from fixbench.engine.readings import Reading, read
+from fixbench.engine.replay import replay_readings
+from fixbench.knowledge import Family, KnowledgeBase
 from fixbench.physics.ratings import parse_ratings
 from fixbench.quantities import ReadingError
-from fixbench.store import StoreError, bench_log, cases, people, priors
+from fixbench.store import StoreError, cases, priors
+from fixbench.store.case_record import CaseRecord, KeptRepair, KeptVerification, load_case_record
 from fixbench.store.cases import RankedSuspect
-
-
-@dataclass(frozen=True)
-class IntakeForm:
-    ticket: str
-    make: str
-    model: str
-    serial: str
-    kind: str
-    family_id: str
-    ratings: dict[str, str]
-    symptoms: tuple[str, ...]  # checks answered "yes" at intake (reported or seen)
-    notes: str = ""
+from fixbench.store.database import Store
 
 
 @dataclass(frozen=True)
@@ -45,6 +38,7 @@ class CaseInView:
     status: str
     opened_at: datetime
     cautions_acknowledged: bool
+    technician_id: int  # who opened the case
 
     @property
     def heading(self) -> str:
@@ -54,9 +48,9 @@ class CaseInView:
 @dataclass(frozen=True)
 class Loaded:
     case: CaseInView
-    state: object  # DiagnosisState
-    repairs: tuple[bench_log.LoggedRepair, ...] = ()
-    verifications: tuple[bench_log.LoggedVerification, ...] = ()
+    state: DiagnosisState
+    repairs: tuple[KeptRepair, ...] = ()
+    verifications: tuple[KeptVerification, ...] = ()
     notice: str = ""
 
 
@@ -70,63 +64,43 @@ def person_message(err: Exception) -> str:
     return f"something went wrong ({type(err).__name__}: {err}); the last saved step is kept"
 
 
-def warm(state) -> object:
+def warm(state: DiagnosisState) -> DiagnosisState:
     """Compute what the screen reads, here (off the GUI thread) rather than on first access."""
     _ = state.suspects, state.stage_chances, state.next_check, state.conclusion
     return state
 
 
-def _suspects(state) -> list[RankedSuspect]:
-    return [RankedSuspect(s.fault, s.probability, s.part, s.stage) for s in state.suspects]
+def keep(store: Store, case_id: int, reading: Reading, state: DiagnosisState) -> None:
+    """Keep a reading as typed and parsed, with the engine's suspects after it."""
+    cases.add_reading(store, case_id, check_id=reading.check, typed=reading.text,
+                      value=reading.value, unit=reading.unit, outcome=reading.outcome,
+                      suspects=[RankedSuspect.from_engine(s) for s in state.suspects])
 
 
-def _keep(store, case_id: int, reading: Reading, state) -> None:
-    cases.add_reading(store, case_id, check_id=reading.check, typed=reading.text, value=reading.value,
-                      unit=reading.unit, outcome=reading.outcome, suspects=_suspects(state))
-
-
-def open_new_case(store, knowledge, technician_id: int, form: IntakeForm) -> Loaded:
-    family = knowledge.family(form.family_id)
-    ratings = parse_ratings(form.ratings)
-    device_id = bench_log.find_device(store, form.make, form.model, form.serial)
-    if device_id is None:
-        device_id = people.add_device(store, make=form.make.strip(), model=form.model.strip(),
-                                      kind=form.kind, label_ratings=form.ratings,
-                                      serial=form.serial.strip() or None)
-    case_id = cases.open_case(store, ticket_ref=form.ticket.strip(), device_id=device_id,
-                              technician_id=technician_id, family_id=family.id,
-                              ratings=form.ratings, notes=form.notes)
-    state = start_diagnosis(family, ratings, priors.confirmed_fault_counts(store, family.id))
-    for check_id in form.symptoms:
-        state = warm(state.with_reading(check_id, "yes"))
-        _keep(store, case_id, state.readings[-1], state)
-    record = bench_log.load_case(store, case_id)
-    return Loaded(_case_view(record, family), warm(state), notice="Case opened.")
-
-
-def resume_case(store, knowledge, case_id: int) -> Loaded:
-    record = bench_log.load_case(store, case_id)
-    family = knowledge.family(record.family_id)
-    state = start_diagnosis(family, parse_ratings(record.ratings),
-                            priors.confirmed_fault_counts(store, family.id))
-    unread = []
-    for logged in record.readings:
-        try:
-            state = state.with_reading(logged.check_id, logged.typed)
-        except (ReadingError, KeyError):
-            unread.append(logged.typed)  # the knowledge base changed since it was typed
-    for check_id in record.skipped:
-        if family.has_check(check_id):
-            state = state.skip(check_id)
-    notice = f"Resumed with {len(state.readings)} readings."
-    if unread:
-        notice += f" Not re-read (the checks changed): {', '.join(unread)}."
-    return Loaded(_case_view(record, family), warm(state), record.repairs, record.verifications, notice)
-
-
-def _case_view(record: bench_log.CaseRecord, family) -> CaseInView:
+def case_view(record: CaseRecord, family: Family) -> CaseInView:
     return CaseInView(record.id, record.ticket, record.make, record.model, family.id, family.title,
-                      record.ratings, record.status, record.opened_at, record.cautions_acknowledged)
+                      record.ratings, record.status, record.opened_at, record.cautions_acknowledged,
+                      record.technician_id)
+
+
+def resume_case(store: Store, knowledge: KnowledgeBase, case_id: int) -> Loaded:
+    """The case where it was left: its standing readings replayed, its skips, repairs and
+    verifications; a reading this build can no longer take is named in the notice."""
+    record = load_case_record(store, case_id)
+    family = knowledge.family(record.family_id)
+    start = start_diagnosis(family, parse_ratings(record.ratings),
+                            priors.confirmed_fault_counts(store, family.id))
+    replayed = replay_readings(start, ((r.check_id, r.typed) for r in record.standing_readings))
+    state = replayed.state
+    for skipped in record.skipped:
+        if family.has_check(skipped.check_id):
+            state = state.skip(skipped.check_id)
+    notice = f"Resumed with {len(state.readings)} readings."
+    if replayed.refused:  # the knowledge base changed since they were typed
+        notice += (" Not re-read (the checks changed): "
+                   f"{', '.join(r.typed for r in replayed.refused)}.")
+    return Loaded(case_view(record, family), warm(state), record.repairs, record.verifications,
+                  notice)
 
 
 def page_for(loaded: Loaded) -> str:
@@ -135,58 +109,55 @@ def page_for(loaded: Loaded) -> str:
     return {"repairing": "repair", "verifying": "verify"}.get(loaded.case.status, "guided")
 
 
-def acknowledge(store, case: CaseInView, technician_id: int | None) -> CaseInView:
-    who = technician_id if technician_id is not None else _owner_of(store, case)
-    bench_log.acknowledge_cautions(store, case.id, who)
+def acknowledge(store: Store, case: CaseInView, technician_id: int | None) -> CaseInView:
+    """Keep that the cautions were read, by whoever is at the bench (else whoever opened it)."""
+    who = technician_id if technician_id is not None else case.technician_id
+    cases.acknowledge_cautions(store, case.id, who)
     return replace(case, cautions_acknowledged=True)
 
 
-def _owner_of(store, case: CaseInView) -> int:
-    from fixbench.store.models import Case
-
-    with store.session() as session:
-        return session.get(Case, case.id).technician_id
-
-
-def keep_reading(store, case: CaseInView, state) -> object:
+def keep_reading(store: Store, case: CaseInView, state: DiagnosisState) -> DiagnosisState:
     state = warm(state)
-    _keep(store, case.id, state.readings[-1], state)
+    keep(store, case.id, state.readings[-1], state)
     return state
 
 
-def keep_skip(store, case: CaseInView, state, check_id: str) -> object:
-    bench_log.skip_check(store, case.id, check_id)
+def keep_skip(store: Store, case: CaseInView, state: DiagnosisState,
+              check_id: str) -> DiagnosisState:
+    cases.skip_check(store, case.id, check_id)
     return warm(state)
 
 
-def keep_undo(store, case: CaseInView, state) -> object:
-    bench_log.withdraw_last_reading(store, case.id)
+def keep_undo(store: Store, case: CaseInView, state: DiagnosisState) -> DiagnosisState:
+    cases.withdraw_last_reading(store, case.id)
     return warm(state)
 
 
-def keep_repair(store, case: CaseInView, part_id: str, action: str, value_text: str,
-                test_passed: bool | None, cost_cents: int) -> tuple[bench_log.LoggedRepair, ...]:
+def keep_repair(store: Store, case: CaseInView, part_id: str, action: str, value_text: str,
+                test_passed: bool | None, cost_cents: int) -> tuple[KeptRepair, ...]:
     """Keep a repair line: a replaced part with its value fitted, a tested part with its result."""
     cases.add_repair_action(store, case.id, part_id=part_id, action=action,
                             parts_cost_cents=cost_cents, value_fitted=value_text.strip() or None,
                             test_passed=test_passed)
-    return bench_log.load_case(store, case.id).repairs
+    return load_case_record(store, case.id).repairs
 
 
-def verification_reading(state, check_id: str, text: str) -> Reading:
+def verification_reading(state: DiagnosisState, check_id: str, text: str) -> Reading:
     """A verification reading read against the healthy band (ReadingError at once if mistyped)."""
     model = state.model
     return read(model.checks[model.check_index(check_id)], text)
 
 
-def keep_verification(store, case: CaseInView, reading: Reading) -> tuple[bench_log.LoggedVerification, ...]:
+def keep_verification(store: Store, case: CaseInView,
+                      reading: Reading) -> tuple[KeptVerification, ...]:
     cases.add_verification(store, case.id, check_id=reading.check, typed=reading.text,
                            value=reading.value, unit=reading.unit, outcome=reading.outcome,
                            passed=reading.in_band)
-    return bench_log.load_case(store, case.id).verifications
+    return load_case_record(store, case.id).verifications
 
 
-def keep_close(store, case: CaseInView, state, outcome: str, minutes: int, fault_id: str | None) -> None:
+def keep_close(store: Store, case: CaseInView, state: DiagnosisState, outcome: str, minutes: int,
+               fault_id: str | None) -> None:
     part = stage = None
     family = state.family
     if fault_id is not None and fault_id in {f.id for f in family.faults}:

@@ -1,8 +1,10 @@
 """One case's whole story, in the order it happened, and the same readings through today's engine.
 
-Plain Python (no widgets): :func:`load_case_story` reads the record and the knowledge base and
-returns frozen entries the case window draws; :func:`rerun_case` feeds the readings as typed to
-the engine of this build and says whether its conclusion differs from the one kept with the case.
+:func:`load_case_story` reads the case with :func:`fixbench.store.case_record.load_case_record`
+(the one case loader) and the knowledge base, and returns frozen entries the case window draws;
+:func:`rerun_case` replays the standing readings as typed through the engine of this build
+(:func:`fixbench.engine.replay.replay_readings`) and says whether its conclusion differs from the
+one kept with the case.
 Expected bands are the healthy unit's, from the fault model of the case's family and ratings.
 An amended case is told as it was closed (the old value of each field's first amendment), then
 each amendment with who, when and why; the card shows the values as they stand now.
@@ -10,25 +12,21 @@ each amendment with who, when and why; the card shows the values as they stand n
 
 from __future__ import annotations
 
-import json
 from dataclasses import dataclass, field
 from datetime import datetime
 
-from sqlalchemy import select
-
 from fixbench.engine import start_diagnosis
-from fixbench.physics.ratings import describe_label
 from fixbench.engine.fault_model import FaultModel, cached_fault_model
 from fixbench.engine.readings import read
+from fixbench.engine.replay import replay_readings
 from fixbench.knowledge import KnowledgeBase
-from fixbench.physics.ratings import parse_ratings
+from fixbench.physics.ratings import describe_label, parse_ratings
 from fixbench.quantities import ReadingError
 from fixbench.store.amendments import AMENDABLE
+from fixbench.store.case_record import CaseRecord, KeptAmendment, load_case_record
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import (Amendment, Case, RepairAction, SkippedCheck, Verification,
-                                   WithdrawnReading)
-from fixbench.ui.review.names import TradeNames, family_name, outcome_name
+from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
 SUSPECTS_SHOWN = 3
 
@@ -96,7 +94,7 @@ def expected_band(model: FaultModel | None, check_id: str, typed: str) -> tuple[
     return expected, in_band
 
 
-def fault_model_of(kb: KnowledgeBase, case: Case) -> FaultModel | None:
+def fault_model_of(kb: KnowledgeBase, case: CaseRecord) -> FaultModel | None:
     try:
         return cached_fault_model(kb.family(case.family_id), parse_ratings(dict(case.ratings)))
     except (KeyError, ReadingError):
@@ -123,10 +121,11 @@ def shown_value(names: TradeNames, family_id: str, field_name: str, value) -> st
     return str(value)
 
 
-def _amendment_steps(names: TradeNames, family_id: str, changes: list[Amendment]) -> list[Step]:
+def _amendment_steps(names: TradeNames, family_id: str,
+                     changes: tuple[KeptAmendment, ...]) -> list[Step]:
     """One step per amendment made: rows written together (a fault with its part and stage) share
     who, why and the moment, and are told as one."""
-    groups: list[list[Amendment]] = []
+    groups: list[list[KeptAmendment]] = []
     for change in changes:
         last = groups[-1][-1] if groups else None
         if (last is not None
@@ -136,8 +135,8 @@ def _amendment_steps(names: TradeNames, family_id: str, changes: list[Amendment]
         else:
             groups.append([change])
 
-    def shown(change: Amendment, stored: str) -> str:
-        return shown_value(names, family_id, change.field, json.loads(stored))
+    def shown(change: KeptAmendment, value) -> str:
+        return shown_value(names, family_id, change.field, value)
 
     steps = []
     for group in groups:
@@ -158,115 +157,97 @@ def _amendment_steps(names: TradeNames, family_id: str, changes: list[Amendment]
 
 def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     names = TradeNames(kb)
-    with store.reading() as session:
-        case = session.get(Case, case_id)
-        if case is None:
-            raise StoreInputError(f"there is no case {case_id}")
-        model = fault_model_of(kb, case)
-        fam = case.family_id
-        steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician.name}",
-                      (f"{case.device.make} {case.device.model} ({case.device.kind}), "
-                       f"{family_name(fam)}",
-                       "Label: " + describe_label(case.ratings)))]
-        previous: list[str] = []
-        withdrawn = dict(session.execute(
-            select(WithdrawnReading.reading_id, WithdrawnReading.withdrawn_at)
-            .where(WithdrawnReading.reading_id.in_([r.id for r in case.readings]))).all())
-        for reading in case.readings:
-            if reading.id in withdrawn:
-                steps.append(Step(reading.entered_at, "reading",
-                                  f"{reading.seq}. {names.check(reading.check_id, fam)} "
-                                  "(taken back)",
-                                  (f"Read: {reading.typed}; taken back at "
-                                   f"{withdrawn[reading.id]:%H:%M} and left out of the diagnosis",)))
-                continue
-            expected, in_band = expected_band(model, reading.check_id, reading.typed)
-            ranked = [s.fault_id for s in reading.suspects]
-            lines = [f"Read {reading.typed}; a healthy unit: {expected}",
-                     "Suspects: " + "; ".join(f"{names.fault_label(s.fault_id, fam)} "
-                                               f"{s.probability:.0%}"
-                                               for s in reading.suspects[:SUSPECTS_SHOWN])]
-            if previous and ranked and ranked[0] != previous[0]:
-                lines.append(f"First suspect changed from {previous[0]} to {ranked[0]}")
-            previous = ranked or previous
+    case = load_case_record(store, case_id)
+    model = fault_model_of(kb, case)
+    fam = case.family_id
+    steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician}",
+                  (f"{case.make} {case.model} ({case.kind}), {family_name(fam)}",
+                   "Label: " + describe_label(case.ratings)))]
+    previous: list[str] = []
+    for reading in case.readings:
+        if not reading.standing:
             steps.append(Step(reading.entered_at, "reading",
-                              f"{reading.seq}. {names.check(reading.check_id, fam)}",
-                              tuple(lines), in_band))
-        for repair in session.scalars(select(RepairAction).where(RepairAction.case_id == case_id)):
-            steps.append(Step(repair.done_at, "repair",
-                              f"{repair.action.capitalize()} {repair.part_id}: "
-                              f"{names.part(repair.part_id, fam)}",
-                              (f"Parts cost {repair.parts_cost_cents / 100:.2f}",)
-                              + ((f"Fitted: {repair.value_fitted}",) if repair.value_fitted else ())
-                              + ((f"Test before power-up: {'passed' if repair.test_passed else 'failed'}",)
-                                 if repair.test_passed is not None else ())
-                              + ((repair.note,) if repair.note else ())))
-        for skip in session.scalars(select(SkippedCheck).where(SkippedCheck.case_id == case_id)):
-            steps.append(Step(skip.skipped_at, "skipped",
-                              f"Could not measure: {names.check(skip.check_id, fam)}"))
-        for check in session.scalars(select(Verification).where(Verification.case_id == case_id)):
-            expected, in_band = expected_band(model, check.check_id, check.typed)
-            steps.append(Step(check.entered_at, "verification",
-                              f"Verified {names.check(check.check_id, fam)}: "
-                              f"{'passed' if check.passed else 'FAILED'}",
-                              (f"Read {check.typed}; a healthy unit: {expected}",), in_band))
-        changes = list(session.scalars(select(Amendment).where(Amendment.case_id == case_id)
-                                       .order_by(Amendment.id)))
-        current = {name: getattr(case, name) for name in AMENDABLE}
-        as_closed = dict(current)
-        for change in reversed(changes):  # the oldest amendment's old value is the original
-            as_closed[change.field] = json.loads(change.old_value)
-        amended = frozenset(change.field for change in changes)
-        if case.closed_at is not None:
-            closed_lines = [f"Bench time {as_closed['bench_minutes']} min"]
-            if as_closed["confirmed_fault"]:
-                closed_lines.append("Confirmed fault: "
-                                    + names.fault_label(as_closed["confirmed_fault"], fam))
-            if amended:
-                closed_lines.append("As closed; amended since (below): "
-                                    + ", ".join(sorted(f.replace("_", " ") for f in amended)))
-            steps.append(Step(case.closed_at, "closed",
-                              f"Outcome: {outcome_name(as_closed['outcome'])}", tuple(closed_lines)))
-        steps.extend(_amendment_steps(names, fam, changes))
+                              f"{reading.seq}. {names.check(reading.check_id, fam)} (taken back)",
+                              (f"Read: {reading.typed}; taken back at "
+                               f"{reading.withdrawn_at:%H:%M} and left out of the diagnosis",)))
+            continue
+        expected, in_band = expected_band(model, reading.check_id, reading.typed)
+        ranked = [s.fault_id for s in reading.suspects]
+        lines = [f"Read {reading.typed}; a healthy unit: {expected}",
+                 "Suspects: " + "; ".join(f"{names.fault_label(s.fault_id, fam)} "
+                                           f"{s.probability:.0%}"
+                                           for s in reading.suspects[:SUSPECTS_SHOWN])]
+        if previous and ranked and ranked[0] != previous[0]:
+            lines.append(f"First suspect changed from {previous[0]} to {ranked[0]}")
+        previous = ranked or previous
+        steps.append(Step(reading.entered_at, "reading",
+                          f"{reading.seq}. {names.check(reading.check_id, fam)}",
+                          tuple(lines), in_band))
+    for repair in case.repairs:
+        steps.append(Step(repair.done_at, "repair",
+                          f"{repair.action.capitalize()} {repair.part_id}: "
+                          f"{names.part(repair.part_id, fam)}",
+                          (f"Parts cost {repair.cost_cents / 100:.2f}",)
+                          + ((f"Fitted: {repair.value_fitted}",) if repair.value_fitted else ())
+                          + ((f"Test before power-up: {'passed' if repair.test_passed else 'failed'}",)
+                             if repair.test_passed is not None else ())
+                          + ((repair.note,) if repair.note else ())))
+    for skip in case.skipped:
+        steps.append(Step(skip.skipped_at, "skipped",
+                          f"Could not measure: {names.check(skip.check_id, fam)}"))
+    for check in case.verifications:
+        expected, in_band = expected_band(model, check.check_id, check.typed)
+        steps.append(Step(check.entered_at, "verification",
+                          f"Verified {names.check(check.check_id, fam)}: "
+                          f"{'passed' if check.passed else 'FAILED'}",
+                          (f"Read {check.typed}; a healthy unit: {expected}",), in_band))
+    current = {name: getattr(case, name) for name in AMENDABLE}
+    as_closed = {name: case.as_closed(name) for name in AMENDABLE}
+    amended = frozenset(change.field for change in case.amendments)
+    if case.closed_at is not None:
+        closed_lines = [f"Bench time {as_closed['bench_minutes']} min"]
+        if as_closed["confirmed_fault"]:
+            closed_lines.append("Confirmed fault: "
+                                + names.fault_label(as_closed["confirmed_fault"], fam))
+        if amended:
+            closed_lines.append("As closed; amended since (below): "
+                                + ", ".join(sorted(f.replace("_", " ") for f in amended)))
+        steps.append(Step(case.closed_at, "closed",
+                          f"Outcome: {outcome_name(as_closed['outcome'])}", tuple(closed_lines)))
+    steps.extend(_amendment_steps(names, fam, case.amendments))
 
-        def card(name: str, value: str) -> str:
-            return f"{value} (amended)" if value and name in amended else value
+    def card(name: str, value: str) -> str:
+        return f"{value} (amended)" if value and name in amended else value
 
-        facts = (("Ticket", case.ticket_ref),
-                 ("Customer", card("customer_ref", case.customer_ref or "")),
-                 ("Technician", case.technician.name), ("Family", family_name(fam)),
-                 ("Serial", case.device.serial or ""),
-                 ("Outcome", card("outcome", outcome_name(case.outcome, case.status))),
-                 ("Confirmed fault", card("confirmed_fault",
-                                          names.fault_label(case.confirmed_fault, fam))),
-                 ("Confirmed part", card("confirmed_part", "" if not case.confirmed_part else
-                                         shown_value(names, fam, "confirmed_part",
-                                                     case.confirmed_part))),
-                 ("Bench minutes", card("bench_minutes", "" if case.bench_minutes is None
-                                        else str(case.bench_minutes))),
-                 ("Notes", card("notes", case.notes)))
-        return CaseStory(case_id, case.ticket_ref,
-                         f"{case.device.make} {case.device.model} {case.device.kind}", facts,
-                         tuple(sorted(steps, key=lambda s: s.at)), fam, dict(case.ratings),
-                         tuple((r.check_id, r.typed) for r in case.readings
-                               if r.id not in withdrawn),
-                         case.top_suspect_fault, case.confirmed_fault, case.status, current,
-                         amended)
+    facts = (("Ticket", case.ticket),
+             ("Customer", card("customer_ref", case.customer_ref or "")),
+             ("Technician", case.technician), ("Family", family_name(fam)),
+             ("Serial", case.serial or ""),
+             ("Outcome", card("outcome", outcome_name(case.outcome, case.status))),
+             ("Confirmed fault", card("confirmed_fault",
+                                      names.fault_label(case.confirmed_fault, fam))),
+             ("Confirmed part", card("confirmed_part", "" if not case.confirmed_part else
+                                     shown_value(names, fam, "confirmed_part",
+                                                 case.confirmed_part))),
+             ("Bench minutes", card("bench_minutes", "" if case.bench_minutes is None
+                                    else str(case.bench_minutes))),
+             ("Notes", card("notes", case.notes)))
+    return CaseStory(case_id, case.ticket, f"{case.make} {case.model} {case.kind}", facts,
+                     tuple(sorted(steps, key=lambda s: s.at)), fam, dict(case.ratings),
+                     tuple((r.check_id, r.typed) for r in case.standing_readings),
+                     case.top_suspect_fault, case.confirmed_fault, case.status, current,
+                     amended)
 
 
 def rerun_case(kb: KnowledgeBase, story: CaseStory) -> Rerun:
     """The case's readings through today's engine; ``changed`` if its first suspect differs."""
     try:
-        state = start_diagnosis(kb.family(story.family_id), parse_ratings(story.ratings))
+        start = start_diagnosis(kb.family(story.family_id), parse_ratings(story.ratings))
     except (KeyError, ReadingError) as err:
         raise StoreInputError(f"today's engine cannot take this case: {err}") from None
-    skipped = []
-    for check_id, typed in story.readings:
-        try:
-            state = state.with_reading(check_id, typed)
-        except (KeyError, ReadingError) as err:
-            skipped.append(f"{check_id} '{typed}': {err}")
-    conclusion = state.final_conclusion()
+    replayed = replay_readings(start, story.readings)
+    skipped = [f"{r.check_id} '{r.typed}': {r.reason}" for r in replayed.refused]
+    conclusion = replayed.state.final_conclusion()
     today = conclusion.faults
     changed = story.kept_first_suspect is not None and story.kept_first_suspect not in today[:1]
     names = TradeNames(kb)

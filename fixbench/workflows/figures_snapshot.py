@@ -76,10 +76,9 @@ def figure_queries(store: Store, scope: CaseFilter) -> list[Callable[[], dict[st
 def count_figures(store: Store, scope: CaseFilter) -> Iterator[tuple[str, Figure]]:
     """Each figure of ``scope`` as soon as it is counted, one query after another.
 
-    One after another on purpose: every store transaction on SQLite begins IMMEDIATE (it takes
-    the database's write lock, see :mod:`fixbench.store.database`), so queries from several
-    threads would only queue for that lock, and a thread that finds it taken sleeps in the busy
-    handler's growing steps well past the moment it is free again.
+    One after another on purpose, in the screen's order, so each chart is drawn as soon as its
+    figure is in and the first page fills first (the queries are plain reads through
+    :meth:`fixbench.store.database.Store.read_connection`, which never wait for a bench's write).
     """
     for query in figure_queries(store, scope):
         yield from query().items()

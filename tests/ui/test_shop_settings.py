@@ -4,7 +4,7 @@ import pytest
 from PySide6.QtCore import Qt
 
 from fixbench.store import OwnerRequired, open_store
-from fixbench.store.bench_log import get_setting
+from fixbench.store.shop_settings import get_setting
 from fixbench.store.owner import has_owner_passphrase, require_owner
 from fixbench.ui.context import AppContext
 from fixbench.ui.shop_settings import ShopSettingsDialog

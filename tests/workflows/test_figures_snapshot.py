@@ -8,7 +8,7 @@ import pytest
 
 from fixbench.store import owner_figures as store_figures
 from fixbench.store.case_filters import CaseFilter, filter_choices
-from fixbench.ui.review.figures_snapshot import TOP_BARS, compute_figures, count_figures
+from fixbench.workflows.figures_snapshot import TOP_BARS, compute_figures, count_figures
 
 
 def _scopes(store) -> list[CaseFilter]:

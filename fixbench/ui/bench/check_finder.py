@@ -9,7 +9,7 @@ from __future__ import annotations
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import QDialog, QLabel, QLineEdit, QListWidget, QListWidgetItem, QVBoxLayout
 
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 
 
 class CheckFinder(QDialog):

@@ -16,10 +16,14 @@ from datetime import UTC, datetime
 
 from PySide6.QtCore import QObject, Signal
 
-from fixbench.ui.bench import records
-from fixbench.ui.bench.records import CaseInView, IntakeForm
+from fixbench.engine import DiagnosisState
+from fixbench.engine.conclusion import Conclusion
+from fixbench.engine.readings import Reading
 from fixbench.ui.context import AppContext
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows import bench, intake
+from fixbench.workflows.bench import CaseInView, KeptRepair, KeptVerification
+from fixbench.workflows.intake import IntakeForm, TicketInUse
 
 PAGES = ("cases", "intake", "cautions", "guided", "repair", "verify", "close")
 
@@ -29,12 +33,12 @@ class BenchView:
     """What the screen shows about the open case, replaced as a whole after every job."""
 
     case: CaseInView | None = None
-    state: object | None = None  # DiagnosisState
+    state: DiagnosisState | None = None
     chosen_check: str | None = None  # a check picked off the list instead of the proposal
-    conclusion: object | None = None
-    repairs: tuple = ()
-    verifications: tuple = ()
-    last_verification: object | None = None  # engine Reading of the newest verification
+    conclusion: Conclusion | None = None
+    repairs: tuple[KeptRepair, ...] = ()
+    verifications: tuple[KeptVerification, ...] = ()
+    last_verification: Reading | None = None  # the newest verification, read against its band
     notice: str = ""  # one line on what just happened ("reading kept", "undone: ...")
 
 
@@ -43,6 +47,7 @@ class BenchController(QObject):
     page_wanted = Signal(str)
     cases_changed = Signal()
     failed = Signal(str)  # a message for the person: the store refused, the disk is full...
+    ticket_refused = Signal(str)  # intake's ticket is already a case's: shown beside the field
     busy_changed = Signal(bool)
 
     def __init__(self, context: AppContext, parent: QObject | None = None) -> None:
@@ -75,7 +80,10 @@ class BenchController(QObject):
                 self._next()
 
         def failed(err: Exception) -> None:
-            self.failed.emit(records.person_message(err))
+            if isinstance(err, TicketInUse):
+                self.ticket_refused.emit(str(err))
+            else:
+                self.failed.emit(bench.person_message(err))
             self._next()
 
         run_in_background(work, finished, failed)
@@ -103,13 +111,13 @@ class BenchController(QObject):
     def open_case(self, form: IntakeForm) -> None:
         """Keep a checked intake form as a new case, its symptoms as the first readings."""
         store, knowledge, technician = self.context.store, self.context.knowledge, self.context.technician_id
-        self._queue(lambda: records.open_new_case(store, knowledge, technician, form), self._loaded)
+        self._queue(lambda: intake.open_new_case(store, knowledge, technician, form), self._loaded)
 
     def resume(self, case_id: int) -> None:
         store, knowledge = self.context.store, self.context.knowledge
-        self._queue(lambda: records.resume_case(store, knowledge, case_id), self._loaded)
+        self._queue(lambda: bench.resume_case(store, knowledge, case_id), self._loaded)
 
-    def _loaded(self, loaded: records.Loaded) -> None:
+    def _loaded(self, loaded: bench.Loaded) -> None:
         self.view = BenchView(case=loaded.case, state=loaded.state, repairs=loaded.repairs,
                               verifications=loaded.verifications, notice=loaded.notice)
         self.cases_changed.emit()
@@ -117,13 +125,13 @@ class BenchController(QObject):
         if loaded.case.status in ("repairing", "verifying") and self.view.conclusion is None:
             self.view.conclusion = loaded.state.final_conclusion()
         self.view_changed.emit(self.view)
-        self.page_wanted.emit(records.page_for(loaded))
+        self.page_wanted.emit(bench.page_for(loaded))
 
     # --- cautions ------------------------------------------------------------------------------
 
     def acknowledge_cautions(self) -> None:
         case, store, technician = self.view.case, self.context.store, self.context.technician_id
-        self._queue(lambda: records.acknowledge(store, case, technician), self._acknowledged)
+        self._queue(lambda: bench.acknowledge(store, case, technician), self._acknowledged)
 
     def _acknowledged(self, case: CaseInView) -> None:
         self._show(case=case, notice="Cautions acknowledged for this case.")
@@ -150,9 +158,9 @@ class BenchController(QObject):
         new_state = self.view.state.with_reading(check_id, text)  # raises ReadingError at once
         case, store = self.view.case, self.context.store
         self.view.state, self.view.chosen_check = new_state, None
-        self._queue(lambda: records.keep_reading(store, case, new_state), self._after_reading)
+        self._queue(lambda: bench.keep_reading(store, case, new_state), self._after_reading)
 
-    def _after_reading(self, state) -> None:
+    def _after_reading(self, state: DiagnosisState) -> None:
         reading = state.readings[-1]
         mark = "in band" if reading.in_band else "OUT OF BAND"
         self._show(state=state, notice=f"Kept: {reading.shown()} ({mark}).",
@@ -165,7 +173,7 @@ class BenchController(QObject):
         new_state = self.view.state.skip(check_id)
         case, store = self.view.case, self.context.store
         self.view.state, self.view.chosen_check = new_state, None
-        self._queue(lambda: records.keep_skip(store, case, new_state, check_id),
+        self._queue(lambda: bench.keep_skip(store, case, new_state, check_id),
                     lambda state: self._show(state=state, conclusion=state.conclusion,
                                              notice="Skipped: cannot measure."))
 
@@ -178,7 +186,7 @@ class BenchController(QObject):
         new_state = state.undo()
         case, store = self.view.case, self.context.store
         self.view.state, self.view.chosen_check = new_state, None
-        self._queue(lambda: records.keep_undo(store, case, new_state),
+        self._queue(lambda: bench.keep_undo(store, case, new_state),
                     lambda s: self._show(state=s, conclusion=s.conclusion,
                                          notice=f"Undone: {taken_back.shown()} taken back."))
 
@@ -198,7 +206,7 @@ class BenchController(QObject):
         case, store = self.view.case, self.context.store
         kept = action if test_passed is None else (
             f"{action}, {'passed' if test_passed else 'failed'}")
-        self._queue(lambda: records.keep_repair(store, case, part_id, action, value_text,
+        self._queue(lambda: bench.keep_repair(store, case, part_id, action, value_text,
                                                 test_passed, cost_cents),
                     lambda repairs: self._show(repairs=repairs, notice=f"Kept: {part_id} {kept}."))
 
@@ -206,9 +214,9 @@ class BenchController(QObject):
         self.page_wanted.emit("verify")
 
     def submit_verification(self, check_id: str, text: str) -> None:
-        reading = records.verification_reading(self.view.state, check_id, text)  # raises at once
+        reading = bench.verification_reading(self.view.state, check_id, text)  # raises at once
         case, store = self.view.case, self.context.store
-        self._queue(lambda: records.keep_verification(store, case, reading),
+        self._queue(lambda: bench.keep_verification(store, case, reading),
                     lambda rows: self._show(verifications=rows, last_verification=reading,
                                             notice=""))
 
@@ -217,7 +225,7 @@ class BenchController(QObject):
 
     def close_case(self, outcome: str, minutes: int, fault_id: str | None) -> None:
         case, store, state = self.view.case, self.context.store, self.view.state
-        self._queue(lambda: records.keep_close(store, case, state, outcome, minutes, fault_id),
+        self._queue(lambda: bench.keep_close(store, case, state, outcome, minutes, fault_id),
                     lambda _none: self.back_to_cases())
 
     def minutes_so_far(self) -> int:

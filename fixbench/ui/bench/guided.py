@@ -6,7 +6,7 @@ from __future__ import annotations
 from PySide6.QtWidgets import (QHBoxLayout, QLabel, QListWidget, QSplitter, QVBoxLayout, QWidget)
 from PySide6.QtCore import Qt
 
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 from fixbench.ui.bench.check_finder import CheckFinder
 from fixbench.ui.bench.look import heading
 from fixbench.ui.bench.stage_picture import StagePicture

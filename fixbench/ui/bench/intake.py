@@ -3,7 +3,9 @@ its label ratings typed with units, and the symptoms reported or seen.
 
 Enter in a field that reads correctly moves to the next one; Ctrl+Enter opens the case from
 anywhere; Esc goes back to the open cases. A field that does not read gets its message under it and
-keeps its text; nothing else on the form is touched.
+keeps its text; nothing else on the form is touched. Ratings are read by
+:mod:`fixbench.workflows.intake` (the one ratings parser); the shop's record (models seen before, a
+ticket already used) is read off the GUI thread, so typing never waits for the database.
 """
 
 from __future__ import annotations
@@ -16,13 +18,13 @@ from PySide6.QtWidgets import (QCheckBox, QComboBox, QCompleter, QFormLayout, QG
                                QHBoxLayout, QLabel, QLineEdit, QPushButton, QScrollArea,
                                QVBoxLayout, QWidget)
 
-from fixbench.physics.ratings import parse_ratings
-from fixbench.quantities import ReadingError, parse_quantity
-from fixbench.store import bench_log
+from fixbench.quantities import ReadingError
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.family_choice import FamilyChoice
 from fixbench.ui.bench.look import heading
-from fixbench.ui.bench.records import IntakeForm
+from fixbench.ui.workers import run_in_background
+from fixbench.workflows.intake import (IntakeForm, known_models, label_ratings, read_rating_field,
+                                       ticket_in_use)
 
 KINDS = ("phone charger", "USB wall adapter", "laptop adapter", "appliance adapter", "other")
 # rating key -> (label, unit, placeholder, required)
@@ -44,19 +46,13 @@ def _required(what: str):
     return check
 
 
-def _rating_check(key: str, unit: str, required: bool):
+def _rating_check(key: str, required: bool):
     def check(text: str) -> str:
-        text = text.strip()
-        if not text:
+        if not text.strip():
             if required:
                 raise ValueError("needed: type it as on the label, with its unit")
             return ""
-        if key == "mains" and text.lower() in ("universal", "100-240 v", "100-240v", "100-240", "85-265", "90-264"):
-            return text
-        measured = parse_quantity(text, unit)
-        if measured.over_range or measured.value <= 0:
-            raise ReadingError(f"'{text}' must be a positive value in {unit}")
-        return text
+        return read_rating_field(key, text)
     return check
 
 
@@ -64,7 +60,6 @@ class IntakePanel(QWidget):
     def __init__(self, controller, parent=None) -> None:
         super().__init__(parent)
         self.controller = controller
-        store = controller.context.store
         self.ticket = CheckedField("ticket reference, e.g. BW-2291", self._ticket_check)
         self.make = CheckedField("make", _required("the make"))
         self.model = CheckedField("model", _required("the model"))
@@ -74,8 +69,8 @@ class IntakePanel(QWidget):
         self.family = FamilyChoice(controller.context.knowledge)
         self.family.chosen.connect(self._family_chosen)
         self.ratings: dict[str, CheckedField] = {}
-        for key, _label, unit, placeholder, required in RATING_FIELDS:
-            self.ratings[key] = CheckedField(placeholder, _rating_check(key, unit, required))
+        for key, _label, _unit, placeholder, required in RATING_FIELDS:
+            self.ratings[key] = CheckedField(placeholder, _rating_check(key, required))
         self.notes = QLineEdit()
         self.notes.setPlaceholderText("what the customer said, in their words")
         self.symptom_box = QGroupBox("Symptoms reported or seen (tick what applies; the rest is asked later)")
@@ -85,12 +80,12 @@ class IntakePanel(QWidget):
         self.message = QLabel()
         self.message.setWordWrap(True)
 
-        self.known = {m.label.lower(): m for m in bench_log.known_models(store)}
-        makes = sorted({m.make for m in self.known.values()})
-        models = sorted({m.model for m in self.known.values()})
-        self.make.edit.setCompleter(self._completer(makes))
-        self.model.edit.setCompleter(self._completer(models))
+        self.known: dict | None = None  # None until the shop's record has been read
+        self._fill_wanted = False
+        self._load_known_models()
         self.model.edit.editingFinished.connect(self._fill_from_history)
+        self.ticket.accepted.connect(self._check_ticket_in_use)
+        controller.ticket_refused.connect(self._ticket_refused)
 
         unit_form = QFormLayout()
         for label, widget in (("Ticket", self.ticket), ("Make", self.make), ("Model", self.model),
@@ -154,10 +149,38 @@ class IntakePanel(QWidget):
         return completer
 
     def _ticket_check(self, text: str) -> str:
-        text = _required("a ticket reference")(text)
-        if bench_log.ticket_taken(self.controller.context.store, text):
-            raise ValueError(f"ticket {text} is already a case: open it from the list, or use another")
-        return text
+        return _required("a ticket reference")(text)
+
+    def _check_ticket_in_use(self, ticket: str) -> None:
+        """Say at once (off the GUI thread) if the ticket is already a case's; opening the case
+        checks again, in the same job that keeps it."""
+        store = self.controller.context.store
+
+        def shown(in_use: bool) -> None:
+            if in_use and self.ticket.text().strip() == ticket:
+                self._ticket_refused(f"ticket {ticket} is already a case: open it from the list, "
+                                     "or use another")
+
+        run_in_background(lambda: ticket_in_use(store, ticket), shown, self._lookup_failed)
+
+    def _ticket_refused(self, message: str) -> None:
+        self.ticket.show_message(message)
+        self.ticket.setFocus()
+
+    def _load_known_models(self) -> None:
+        """Fill the make and model completers from the shop's record, off the GUI thread."""
+        store = self.controller.context.store
+        run_in_background(lambda: known_models(store), self._set_known_models, self._lookup_failed)
+
+    def _set_known_models(self, models) -> None:
+        self.known = {m.label.lower(): m for m in models}
+        self.make.edit.setCompleter(self._completer(sorted({m.make for m in models})))
+        self.model.edit.setCompleter(self._completer(sorted({m.model for m in models})))
+        if self._fill_wanted:  # the model was typed before the record had been read
+            self._fill_from_history()
+
+    def _lookup_failed(self, err: Exception) -> None:
+        self.message.setText(f"\u26a0 The shop's record could not be read: {err}")
 
     def _advance(self, i: int) -> None:
         if i + 1 < len(self.order):
@@ -183,6 +206,10 @@ class IntakePanel(QWidget):
             self.symptoms[check.id] = box
 
     def _fill_from_history(self) -> None:
+        if self.known is None:
+            self._fill_wanted = True
+            return
+        self._fill_wanted = False
         known = self.known.get(f"{self.make.text().strip()} {self.model.text().strip()}".lower())
         if known is None:
             return
@@ -205,7 +232,8 @@ class IntakePanel(QWidget):
         self.notes.clear()
         self.filled_note.clear()
         self.message.clear()
-        self.known = {m.label.lower(): m for m in bench_log.known_models(self.controller.context.store)}
+        self.known, self._fill_wanted = None, False
+        self._load_known_models()
         self.ticket.setFocus()
 
     def form(self) -> IntakeForm | None:
@@ -221,12 +249,10 @@ class IntakePanel(QWidget):
         if family_id is None:
             self.family.show_message("choose the supply family (or answer the questions)")
             ok = False
-        ratings = {k: f.text().strip() for k, f in self.ratings.items() if f.text().strip()}
+        ratings: dict[str, str] = {}
         if ok:
-            if ratings.get("mains", "").lower() not in ("universal", "100-240 v", "100-240v", "100-240", "85-265", "90-264"):
-                ratings.pop("bench_mains", None)  # only universal units are tested on a chosen mains
             try:
-                parse_ratings(ratings)
+                ratings = label_ratings({k: f.text() for k, f in self.ratings.items()})
             except ReadingError as err:
                 match = _RATING_IN_MESSAGE.search(str(err))
                 key = match.group(1) if match and match.group(1) in self.ratings else "current"

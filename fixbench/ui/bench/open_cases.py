@@ -8,8 +8,8 @@ from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
 from PySide6.QtWidgets import (QAbstractItemView, QHBoxLayout, QHeaderView, QLabel, QPushButton,
                                QTableView, QVBoxLayout, QWidget)
 
-from fixbench.store import bench_log
 from fixbench.ui.bench.look import bind_keys, heading
+from fixbench.workflows.shop import OpenCaseRow, open_case_count, open_cases
 
 TICKET, UNIT, FAMILY, STATUS, READINGS, TECHNICIAN, OPENED = range(7)
 HEADERS = ("Ticket", "Unit", "Family", "Where it is", "Readings", "Technician", "Opened")
@@ -24,20 +24,20 @@ class OpenCasesModel(QAbstractTableModel):
         super().__init__(parent)
         self.store = store
         self.family_titles = family_titles
-        self._rows: list[bench_log.OpenCaseRow] = []
+        self._rows: list[OpenCaseRow] = []
         self._total = 0
 
     def refresh(self) -> None:
         self.beginResetModel()
-        self._total = bench_log.open_case_count(self.store)
-        self._rows = bench_log.open_cases(self.store, 0, PAGE)
+        self._total = open_case_count(self.store)
+        self._rows = open_cases(self.store, 0, PAGE)
         self.endResetModel()
 
     def canFetchMore(self, parent=QModelIndex()) -> bool:  # noqa: N802 (Qt name)
         return not parent.isValid() and len(self._rows) < self._total
 
     def fetchMore(self, parent=QModelIndex()) -> None:  # noqa: N802
-        more = bench_log.open_cases(self.store, len(self._rows), PAGE)
+        more = open_cases(self.store, len(self._rows), PAGE)
         if more:
             self.beginInsertRows(QModelIndex(), len(self._rows), len(self._rows) + len(more) - 1)
             self._rows.extend(more)

@@ -150,6 +150,6 @@ class BenchScreen(QWidget):
         layout.addWidget(box)
 
     def _offer_demo_if_empty(self) -> None:
-        from fixbench.store.case_list import case_count
+        from fixbench.workflows.shop import has_records
 
-        self.panels["cases"].empty_offer.setVisible(case_count(self.context.store) == 0)
+        self.panels["cases"].empty_offer.setVisible(not has_records(self.context.store))

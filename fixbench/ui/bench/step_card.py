@@ -11,7 +11,7 @@ from PySide6.QtGui import QKeySequence
 from PySide6.QtWidgets import (QGridLayout, QHBoxLayout, QLabel, QPushButton, QVBoxLayout,
                                QWidget)
 
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.look import (BIG, CAUTION_HUE, GOOD_HUE, LARGE, SUSPECT_HUE, banner, bind_keys,
                                     heading, paint_banner, scaled_font)

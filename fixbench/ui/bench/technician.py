@@ -5,10 +5,8 @@ from __future__ import annotations
 
 from PySide6.QtWidgets import QComboBox, QHBoxLayout, QLabel, QPushButton, QWidget
 
-from fixbench.store import bench_log, people
 from fixbench.ui.bench.entry import CheckedField
-
-LAST_TECHNICIAN = "bench_last_technician"
+from fixbench.workflows.shop import add_person, bench_people, last_at_bench, remember_at_bench
 
 
 def _name(text: str) -> str:
@@ -41,15 +39,14 @@ class TechnicianPicker(QWidget):
 
     def reload(self) -> None:
         store = self.context.store
-        remembered = bench_log.get_setting(store, LAST_TECHNICIAN)
+        remembered = last_at_bench(store)
         self.combo.blockSignals(True)
         self.combo.clear()
-        for person in people.technicians(store):
-            if person.active:
-                self.combo.addItem(f"{person.name}{' (trainee)' if person.role == 'trainee' else ''}", person.id)
+        for person_id, label in bench_people(store):
+            self.combo.addItem(label, person_id)
         self.combo.blockSignals(False)
-        if remembered is not None and self.combo.findData(int(remembered)) >= 0:
-            self.combo.setCurrentIndex(self.combo.findData(int(remembered)))
+        if remembered is not None and self.combo.findData(remembered) >= 0:
+            self.combo.setCurrentIndex(self.combo.findData(remembered))
         self.context.technician_id = self.combo.currentData()
         has_people = self.combo.count() > 0
         self.combo.setVisible(has_people)
@@ -57,10 +54,9 @@ class TechnicianPicker(QWidget):
     def _picked(self) -> None:
         self.context.technician_id = self.combo.currentData()
         if self.context.technician_id is not None and self.combo.signalsBlocked() is False:
-            bench_log.set_setting(self.context.store, LAST_TECHNICIAN, str(self.context.technician_id))
+            remember_at_bench(self.context.store, self.context.technician_id)
 
     def _add(self, name: str) -> None:
-        new_id = people.add_technician(self.context.store, name)
-        bench_log.set_setting(self.context.store, LAST_TECHNICIAN, str(new_id))
+        add_person(self.context.store, name)
         self.new_name.set_text("")
         self.reload()

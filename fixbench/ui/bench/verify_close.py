@@ -7,7 +7,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (QComboBox, QFormLayout, QHBoxLayout, QLabel, QListWidget, QPushButton,
                                QVBoxLayout, QWidget)
 
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.step_card import OUTCOME_WORDS as OUTCOME_WORDS_SHOWN
 from fixbench.ui.bench.look import BIG, SUSPECT_HUE, banner, bind_keys, heading, scaled_font

@@ -11,7 +11,7 @@ from PySide6.QtWidgets import (QHBoxLayout, QHeaderView, QLabel, QLineEdit, QPus
                                QVBoxLayout, QWidget)
 
 from fixbench.practice.progress import AttemptRecord, Progress
-from fixbench.store.practice_cases import TraineeSummary
+from fixbench.workflows.practice import TraineeSummary
 from fixbench.ui.bench.look import heading
 
 

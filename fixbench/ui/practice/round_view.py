@@ -9,7 +9,7 @@ from PySide6.QtWidgets import (QCheckBox, QComboBox, QGroupBox, QHBoxLayout, QHe
                                QTableView, QVBoxLayout, QWidget)
 
 from fixbench.practice.round import PracticeRound, Step
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 from fixbench.ui.bench.look import heading
 from fixbench.ui.practice.step_view import PracticeStep
 

@@ -1,6 +1,7 @@
 """The practice screen: pick a round, play it, read the debrief; progress beside it.
 
-Widgets render and forward; the controller talks to the practice package and the store. The
+Widgets render and forward; :class:`fixbench.workflows.practice.PracticeRounds` talks to the
+practice package and the store. The
 engine's own path for the debrief runs off the GUI thread.
 """
 
@@ -9,21 +10,21 @@ from __future__ import annotations
 from PySide6.QtWidgets import QStackedWidget, QTabWidget, QVBoxLayout, QWidget
 
 from fixbench.practice.round import RoundError
-from fixbench.store import OwnerRequired
-from fixbench.store.practice_cases import attempts_of
+from fixbench.store.errors import OwnerRequired
 from fixbench.ui.context import AppContext
-from fixbench.ui.practice.controller import PracticeController
 from fixbench.ui.practice.debrief_view import DebriefView
 from fixbench.ui.practice.pick_view import PickView
 from fixbench.ui.practice.progress_view import ProgressView
 from fixbench.ui.practice.round_view import RoundView
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows.practice import PracticeRounds
 
 
 class PracticeScreen(QWidget):
-    def __init__(self, context: AppContext, controller: PracticeController | None = None) -> None:
+    def __init__(self, context: AppContext, controller: PracticeRounds | None = None) -> None:
         super().__init__()
-        self.controller = controller or PracticeController(context)
+        self.context = context
+        self.controller = controller or PracticeRounds(context.store, context.knowledge)
         self.pick = PickView()
         self.round_view = RoundView()
         self.debrief_view = DebriefView()
@@ -55,8 +56,8 @@ class PracticeScreen(QWidget):
     def refresh(self) -> None:
         c = self.controller
         trainees = c.trainees()
-        if c.trainee_id is None and c.context.technician_id in {tid for tid, _ in trainees}:
-            c.trainee_id = c.context.technician_id
+        if c.trainee_id is None and self.context.technician_id in {tid for tid, _ in trainees}:
+            c.trainee_id = self.context.technician_id
         self._cases = c.past_cases()
         self.pick.fill(trainees, c.families(), c.levels(), self._cases, c.trainee_id)
         self._show_progress()
@@ -118,8 +119,7 @@ class PracticeScreen(QWidget):
 
     def _show_progress(self) -> None:
         c = self.controller
-        attempts = attempts_of(c.context.store, c.trainee_id) if c.trainee_id is not None else []
-        self.progress_view.show_progress(c.progress(), attempts)
+        self.progress_view.show_progress(c.progress(), c.attempts())
 
     def unlock_owner(self) -> None:
         work = self.controller.unlock_owner(self.progress_view.passphrase.text())

@@ -1,7 +1,7 @@
 """The owner's two changes to a kept case: amending a closed case, and deleting a case.
 
 Both dialogs check what they can before asking the store (who and why given, the ticket typed
-back), then hand the change to :mod:`fixbench.store.amendments` off the GUI thread, since the
+back), then hand the change to :mod:`fixbench.workflows.review` off the GUI thread, since the
 passphrase check alone costs about 0.1 s of scrypt. A wrong passphrase or a value the store refuses
 is told in the dialog, which stays open for another try; nothing is changed.
 
@@ -20,14 +20,12 @@ from PySide6.QtWidgets import (QComboBox, QDialog, QDialogButtonBox, QFormLayout
                                QWidget)
 
 from fixbench.knowledge.model import Family
-from fixbench.store.amendments import amend_closed_case, delete_case
-from fixbench.store.database import Store
 from fixbench.store.errors import OwnerRequired, StoreError
-from fixbench.store.models import OUTCOMES
 from fixbench.ui.bench.verify_close import parse_minutes
-from fixbench.ui.review.names import OUTCOME_WORDS, TradeNames
-from fixbench.ui.review.timeline import CaseStory, shown_value
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows.case_story import CaseStory, shown_value
+from fixbench.workflows.review import OUTCOMES, Store, amend_case, delete_case
+from fixbench.workflows.trade_names import OUTCOME_WORDS, TradeNames
 
 # What the owner may correct, in the order offered; the store's AMENDABLE also holds the stage,
 # which follows the part rather than being chosen on its own.
@@ -250,7 +248,7 @@ class AmendDialog(OwnerActionDialog):
             return
         store, case_id, passphrase = self.store, self.story.case_id, self.passphrase.text()
         changes = changes_for(self.family, field, value)
-        self.run(lambda: amend_closed_case(store, case_id, changes, by=who, reason=why,
+        self.run(lambda: amend_case(store, case_id, changes, by=who, reason=why,
                                            passphrase=passphrase))
 
     def _done(self, result) -> None:

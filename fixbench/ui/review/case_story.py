@@ -1,7 +1,7 @@
 """The window for one case: its card, its timeline, a re-run through today's engine, and the
 owner's amendments and deletion.
 
-Renders a :class:`CaseStory` (built off the GUI thread by :mod:`timeline`) as a timeline the
+Renders a :class:`CaseStory` (built off the GUI thread by :mod:`fixbench.workflows.case_story`) as a timeline the
 owner reads top to bottom; readings outside the healthy band are marked in words as well as colour.
 An amendment reloads the story; a deletion closes the window. Both are announced by signal so the
 History list can count again.
@@ -16,12 +16,12 @@ from PySide6.QtGui import QKeySequence
 from PySide6.QtWidgets import (QDialog, QDialogButtonBox, QHBoxLayout, QLabel, QPushButton,
                                QTextBrowser, QVBoxLayout, QWidget)
 
-from fixbench.store.owner import has_owner_passphrase
+from fixbench.workflows.review import has_owner_passphrase
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.amend_dialog import AmendDialog, DeleteCaseDialog
 from fixbench.ui.review.busy import BusyStrip
-from fixbench.ui.review.names import TradeNames
-from fixbench.ui.review.timeline import CaseStory, Rerun, load_case_story, rerun_case
+from fixbench.workflows.trade_names import TradeNames
+from fixbench.workflows.case_story import CaseStory, Rerun, load_case_story, rerun_case
 from fixbench.ui.workers import run_in_background
 
 KIND_WORDS = {"intake": "Intake", "reading": "Reading", "skipped": "Skipped", "repair": "Repair",

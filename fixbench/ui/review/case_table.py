@@ -1,6 +1,6 @@
 """The case history as a Qt table model: holds the pages loaded so far, asks for the next one.
 
-Sorting and paging happen in the database (:mod:`fixbench.store.case_filters`); this model only
+Sorting and paging happen in the database (:mod:`fixbench.workflows.review`); this model only
 shows the rows it is given and forwards the view's requests (a header click, scrolling near the
 end) as signals that the history controller answers off the GUI thread.
 """
@@ -9,8 +9,8 @@ from __future__ import annotations
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt, Signal
 
-from fixbench.store.case_list import CaseRow
-from fixbench.ui.review.names import TradeNames, family_name, outcome_name
+from fixbench.workflows.review import CaseRow
+from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
 TICKET, OPENED, TECHNICIAN, FAMILY, DEVICE, FAULT, OUTCOME, MINUTES, CLOSED = range(9)
 HEADERS = ("Ticket", "Opened", "Technician", "Supply family", "Device", "Confirmed fault",

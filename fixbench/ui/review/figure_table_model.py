@@ -5,7 +5,7 @@ from __future__ import annotations
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelIndex, Qt
 
-from fixbench.store.owner_figures import Figure
+from fixbench.workflows.review import Figure
 
 ROW_ROLE = Qt.ItemDataRole.UserRole + 1  # the figure's row tuple behind a table row
 COLUMN_WORDS = {"name": "Technician", "closed": "Closed", "repaired": "Repaired",

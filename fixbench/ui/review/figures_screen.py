@@ -15,30 +15,17 @@ from PySide6.QtCore import QDate, QObject, Signal
 from PySide6.QtWidgets import (QComboBox, QDateEdit, QGridLayout, QHBoxLayout, QHeaderView, QLabel,
                                QPushButton, QTableView, QTabWidget, QVBoxLayout, QWidget)
 
-from fixbench.store.case_filters import CaseFilter, FilterChoices, filter_choices, opened_span
-from fixbench.store.database import Store
-from fixbench.store.owner_figures import Figure
-from fixbench.store.chart_counts import MINUTES_BIN
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.busy import BusyStrip
 from fixbench.ui.review.charts import BarChart, MinutesSpread, MonthLines
 from fixbench.ui.review.figure_table_model import FigureTableModel
-from fixbench.ui.review.figures_snapshot import (FiguresSnapshot, count_figures, minutes_text,
+from fixbench.workflows.figures_snapshot import (FiguresSnapshot, count_figures, minutes_text,
                                              percent, snapshot_of)
-from fixbench.ui.review.names import TradeNames, family_name
+from fixbench.workflows.trade_names import TradeNames, family_name
 from fixbench.ui.review.report_actions import ReportActions
 from fixbench.ui.workers import run_in_background
-
-
-def default_scope(last: date) -> CaseFilter:
-    """The twelve calendar months up to the newest case."""
-    start = date(last.year - 1, last.month + 1, 1) if last.month < 12 else date(last.year, 1, 1)
-    return CaseFilter(since=start, until=last)
-
-
-def _newest_twelve_months(store: Store) -> CaseFilter:
-    last = opened_span(store)[1]
-    return default_scope(last.date() if last else date.today())
+from fixbench.workflows.review import (MINUTES_BIN, CaseFilter, Figure, FilterChoices,
+                                       filter_choices, newest_twelve_months)
 
 
 class _FigureRelay(QObject):
@@ -139,7 +126,7 @@ class FiguresScreen(QWidget):
         generation, store, relay = self.generation, self.context.store, self.relay
 
         def work():
-            chosen = scope if scope is not None else _newest_twelve_months(store)
+            chosen = scope if scope is not None else newest_twelve_months(store)
             counted = {}
             for name, figure in count_figures(store, chosen):
                 counted[name] = figure

@@ -12,8 +12,8 @@ from PySide6.QtCore import QDate, QTimer, Signal
 from PySide6.QtWidgets import (QComboBox, QDateEdit, QFormLayout, QLineEdit, QPushButton,
                                QVBoxLayout, QWidget)
 
-from fixbench.store.case_filters import CaseFilter, FilterChoices
-from fixbench.ui.review.names import TradeNames, family_name, outcome_name
+from fixbench.workflows.review import CaseFilter, FilterChoices
+from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
 NO_DATE = QDate(2000, 1, 1)  # the date edit's minimum, shown as "any day"
 TYPING_PAUSE_MS = 300

@@ -12,7 +12,7 @@ from PySide6.QtGui import QKeySequence, QShortcut
 from PySide6.QtWidgets import (QAbstractItemView, QGroupBox, QHBoxLayout, QHeaderView, QLabel,
                                QPushButton, QTableView, QTabWidget, QVBoxLayout, QWidget)
 
-from fixbench.store.case_filters import CaseFilter, FilterChoices, filter_choices
+from fixbench.workflows.review import CaseFilter, FilterChoices, filter_choices
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.busy import BusyStrip
 from fixbench.ui.review.case_story import CaseStoryWindow
@@ -20,7 +20,7 @@ from fixbench.ui.review.case_table import (DEVICE, FAMILY, FAULT, MINUTES, OPENE
                                            ROW_ROLE, TECHNICIAN, TICKET, CaseTableModel)
 from fixbench.ui.review.filters_panel import FiltersPanel
 from fixbench.ui.review.history_controller import HistoryController
-from fixbench.ui.review.names import TradeNames
+from fixbench.workflows.trade_names import TradeNames
 from fixbench.ui.review.report_actions import ReportActions
 from fixbench.ui.workers import run_in_background
 

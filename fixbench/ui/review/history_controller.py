@@ -8,10 +8,10 @@ from __future__ import annotations
 
 from PySide6.QtCore import QObject, Signal
 
-from fixbench.store.case_filters import PAGE_SIZE, CaseFilter, filtered_count, filtered_page
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.case_table import CaseTableModel
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows.review import CaseFilter, history_first_page, history_page
 
 
 class HistoryController(QObject):
@@ -48,17 +48,14 @@ class HistoryController(QObject):
         generation, store = self.generation, self.context.store
         case_filter, key, descending = self.case_filter, self.sort_key, self.descending
 
-        def query():
-            return (filtered_count(store, case_filter),
-                    filtered_page(store, case_filter, key, descending, 0, PAGE_SIZE))
-
-        self._start(query, lambda result: self._first_page(generation, result))
+        self._start(lambda: history_first_page(store, case_filter, key, descending),
+                    lambda result: self._first_page(generation, result))
 
     def fetch_more(self) -> None:
         generation, store = self.generation, self.context.store
         case_filter, key, descending = self.case_filter, self.sort_key, self.descending
         offset = len(self.model.rows)
-        self._start(lambda: filtered_page(store, case_filter, key, descending, offset, PAGE_SIZE),
+        self._start(lambda: history_page(store, case_filter, key, descending, offset),
                     lambda rows: self._next_page(generation, rows))
 
     def _start(self, work, deliver) -> None:

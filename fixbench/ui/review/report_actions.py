@@ -7,19 +7,17 @@ Each action takes an optional path and passphrase so it can be driven without di
 from __future__ import annotations
 
 from datetime import date
-from pathlib import Path
 
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtWidgets import QFileDialog, QWidget
 
-from fixbench.store.case_filters import CaseFilter, export_filtered_csv
 from fixbench.store.errors import StoreError
-from fixbench.store.owner import require_owner
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.busy import BusyStrip
 from fixbench.ui.review.owner_prompt import ask_owner_passphrase
 from fixbench.ui.review.reports import shop_footer, write_job_report, write_monthly_summary
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows.review import CaseFilter, export_cases_csv, require_owner
 
 
 class ReportActions(QObject):
@@ -77,10 +75,8 @@ class ReportActions(QObject):
         store = self.context.store
 
         def work():
-            require_owner(store, passphrase)  # before the file is created
-            with Path(path).open("w", newline="", encoding="utf-8") as out:
-                count = export_filtered_csv(store, case_filter, out, passphrase=passphrase,
-                                            sort=sort, descending=descending)
+            count = export_cases_csv(store, case_filter, path, passphrase=passphrase, sort=sort,
+                                     descending=descending)
             return f"{count} cases exported to {path}"
 
         self._run(work, "Exporting...")

@@ -75,6 +75,8 @@ def test_model_from_history_fills_family_and_ratings(qtbot, bench):
     intake = bench.panels["intake"]
     type_into(qtbot, intake.make.edit, "Larkspur")
     type_into(qtbot, intake.model.edit, "LP-19")
+    # The shop's record is read off the GUI thread: the form fills as soon as it is in.
+    qtbot.waitUntil(lambda: "earlier case of this model" in intake.filled_note.text(), timeout=5000)
     assert intake.family.family_id() == "self_oscillating"
     assert intake.ratings["output"].text() == "9 V" and intake.ratings["mains"].text() == "120 V"
     assert "earlier case of this model" in intake.filled_note.text()

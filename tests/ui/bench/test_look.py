@@ -6,7 +6,7 @@ from __future__ import annotations
 from PySide6.QtGui import QColor, QPalette
 from PySide6.QtWidgets import QApplication
 
-from fixbench.ui.bench import wording
+from fixbench.workflows import step_wording as wording
 from tests.ui.bench.conftest import acknowledge, fill_intake, open_intake, shoot
 
 CHARGER = {"mains": "230 V", "output": "5 V", "current": "2 A"}

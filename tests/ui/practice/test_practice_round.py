@@ -15,10 +15,9 @@ from PySide6.QtCore import Qt
 from fixbench.store import open_store
 from fixbench.store.cases import close_case, open_case
 from fixbench.store.people import add_device, add_technician
-from fixbench.store.practice_cases import attempts_of
 from fixbench.ui.context import AppContext
-from fixbench.ui.practice.controller import PracticeController
 from fixbench.ui.practice.screen import PracticeScreen
+from fixbench.workflows.practice import PracticeRounds, kept_attempts
 
 SEEDS = [2, 20]  # replay seed 2: no collateral fuse; new-unit seed 20 on easy: an open start resistor
 
@@ -41,7 +40,7 @@ def screen(qtbot, shop):
     store, trainee = shop
     seeds = iter(SEEDS)
     context = AppContext(store, technician_id=trainee)
-    widget = PracticeScreen(context, PracticeController(context, seeds=lambda: next(seeds)))
+    widget = PracticeScreen(context, PracticeRounds(store, context.knowledge, seeds=lambda: next(seeds)))
     qtbot.addWidget(widget)
     widget.resize(1366, 768)
     widget.show()
@@ -128,7 +127,7 @@ def test_two_rounds_from_pick_to_debrief_one_with_a_safety_slip(qtbot, screen, s
     assert "Coach asked" in text
     assert "Checks that told the most" in text and "Start" in text.split("Checks that told the most")[1]
 
-    attempts = attempts_of(store, trainee)
+    attempts = kept_attempts(store, trainee)
     assert [a.safety_slips for a in attempts] == [1, 0]
     assert attempts[0].scenario.startswith("replay:normal:pwm_flyback:Q1.short")
     assert attempts[0].band == "Keep practising"

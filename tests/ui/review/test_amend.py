@@ -13,7 +13,7 @@ from sqlalchemy import text
 from fixbench.store.amendments import amendments_of, original_value
 from fixbench.ui.review.case_story import CaseStoryWindow
 from fixbench.ui.review.history import HistoryScreen
-from fixbench.ui.review.names import OUTCOME_WORDS
+from fixbench.workflows.trade_names import OUTCOME_WORDS
 
 from .helpers import settle
 

@@ -11,7 +11,7 @@ from datetime import date
 import pytest
 from sqlalchemy import text
 
-from fixbench.store.bench_log import set_setting
+from fixbench.store.shop_settings import set_setting
 from fixbench.store.case_filters import CaseFilter, filtered_count
 from fixbench.ui.review.history import HistoryScreen
 from fixbench.ui.review.reports import FOOTER_KEY, SAFETY_NOTE, write_job_report, \
