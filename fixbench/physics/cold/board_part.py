@@ -12,16 +12,20 @@ class BoardPart:
     ``pins`` maps the kind's pin names (see part_models.PINS) to nodes. ``value`` is in SI units: ohm
     for resistive parts and a transformer's primary, farad for capacitors, volt for a Zener, None
     where a value means nothing. ``count`` resistors of ``value / count`` each make a chain (a
-    board's "2 x 2.2 Mohm" start-up resistor is value 4.4 Mohm, count 2). ``tolerance`` is the
-    relative spread of the value between good parts. ``extra`` carries kind-specific figures (a
-    capacitor's ESR, a transformer's other windings) as (name, value) pairs."""
+    board's "2 x 2.2 Mohm" start-up resistor is value 4.4 Mohm, count 2); a controller's value is
+    its supply pin's internal resistance to ground. ``spread`` gives the lowest and highest a good
+    part's value may be, as factors on ``value`` (0.95, 1.05 for a 5 % resistor; wide where the
+    value is the family's guess rather than the board's marking). ``extra`` carries kind-specific
+    figures as (name, value) pairs: a capacitor's ``esr_ohm``, a fuse's or conductor's ``ohm``, a
+    transformer's ``aux_ohm``, ``secondary_ohm``, ``feedback_ohm`` and ``<winding>_henry``, and
+    ``drop_shift_v``, how far a part's junctions sit from their type's typical drop."""
 
     id: str
     kind: str
     pins: tuple[tuple[str, str], ...]
     value: float | None = None
     count: int = 1
-    tolerance: float = 0.0
+    spread: tuple[float, float] = (1.0, 1.0)
     mode: str = "ok"
     lifted: str | None = None
     extra: tuple[tuple[str, float], ...] = ()

@@ -25,11 +25,11 @@ class ColdNetlist:
     _index: dict = field(default_factory=dict, compare=False, hash=False, repr=False)
 
     def __post_init__(self) -> None:
-        ids = [p.id for p in self.parts]
-        duplicated = sorted({i for i in ids if ids.count(i) > 1})
-        if duplicated:
-            raise ValueError(f"parts named more than once: {', '.join(duplicated)}")
         self._index.update({p.id: i for i, p in enumerate(self.parts)})
+        if len(self._index) != len(self.parts):
+            ids = [p.id for p in self.parts]
+            duplicated = sorted({i for i in ids if ids.count(i) > 1})
+            raise ValueError(f"parts named more than once: {', '.join(duplicated)}")
 
     def part(self, part_id: str) -> BoardPart:
         try:
@@ -56,15 +56,29 @@ class ColdNetlist:
         """The board with one leg of a part lifted off its pad."""
         return self._replaced(replace(self.part(part_id), lifted=pin))
 
-    def with_value(self, part_id: str, value: float, count: int = 1, tolerance: float | None = None) -> ColdNetlist:
-        """The board with a part's own value, e.g. from the board's marking."""
+    def with_value(self, part_id: str, value: float, count: int = 1,
+                   spread: tuple[float, float] | None = None) -> ColdNetlist:
+        """The board with a part's own value, e.g. from the board's marking (with the spread of
+        a part so marked)."""
         part = self.part(part_id)
-        return self._replaced(replace(part, value=value, count=count,
-                                      tolerance=part.tolerance if tolerance is None else tolerance))
+        return self._replaced(replace(part, value=value, count=count, spread=spread or part.spread))
+
+    def only(self, part_ids: frozenset[str]) -> ColdNetlist:
+        """The board cut down to some of its parts."""
+        return ColdNetlist(tuple(p for p in self.parts if p.id in part_ids))
+
+    def with_part(self, part: BoardPart) -> ColdNetlist:
+        """The board with one part replaced by ``part`` (same id)."""
+        return self._replaced(part)
 
     @cached_property
     def elements(self) -> tuple[Element, ...]:
         return tuple(e for part in self.parts for e in cold_elements(part))
+
+    @cached_property
+    def owners(self) -> dict[str, str]:
+        """Element name -> the id of the part it belongs to."""
+        return {e.name: part.id for part in self.parts for e in cold_elements(part)}
 
     @cached_property
     def nodes(self) -> frozenset[str]:

@@ -8,6 +8,9 @@ internal resistances show; a MOSFET's channel and a phototransistor are off [pra
 
 from __future__ import annotations
 
+from dataclasses import replace
+from functools import lru_cache
+
 from fixbench.physics.cold import junctions as jn
 from fixbench.physics.cold.board_part import BoardPart
 from fixbench.physics.cold.elements import Capacitor, Element, Junction, Resistor, Winding
@@ -42,10 +45,37 @@ CONTROLLER_VCC_OHM = 150e3
 AUX_WINDING_OHM = 1.0  # auxiliary winding of a charger transformer [practice]
 SECONDARY_WINDING_OHM = 0.05  # secondary of a 5-20 V output [practice]
 FEEDBACK_WINDING_OHM = 0.5  # base-drive winding of a self-oscillating supply [practice]
+# Winding inductances, for the ESR meter's 100 kHz only: a charger primary of 0.5-3 mH; the other
+# windings scale down by the square of their turns ratio, tens of microhenry [practice].
+WINDING_HENRY = {"primary": 1.5e-3, "aux": 30e-6, "secondary": 15e-6, "feedback": 30e-6}
+
+# The failure modes each kind's cold model knows (besides "ok").
+MODES: dict[str, tuple[str, ...]] = {
+    "fuse": ("open",), "thermistor": ("open", "drift"), "resistor": ("open", "drift"), "lead": ("open",),
+    "electrolytic": ("dried", "short", "open"), "film_capacitor": ("short", "open"),
+    "rectifier_diode": ("open", "short"), "fast_diode": ("open", "short"), "schottky": ("open", "short"),
+    "zener": ("open", "short"), "bridge": ("open", "short"), "mosfet": ("open", "short"),
+    "bjt": ("open", "short"), "controller": ("dead", "short"), "optocoupler": ("open", "short"),
+    "tl431": ("open", "short"), "transformer": ("open",),
+}
 
 DIODE_JUNCTIONS = {"rectifier_diode": jn.SILICON_RECTIFIER, "fast_diode": jn.FAST_RECOVERY,
                    "schottky": jn.SCHOTTKY}
 RESISTIVE = ("fuse", "thermistor", "resistor", "lead")
+# The junction type whose spread a part's junctions share.
+JUNCTION_KINDS: dict[str, jn.JunctionKind] = {
+    **DIODE_JUNCTIONS, "zener": jn.ZENER_FORWARD, "bridge": jn.SILICON_RECTIFIER, "mosfet": jn.BODY_DIODE,
+    "bjt": jn.TRANSISTOR_JUNCTION, "controller": jn.IC_SUBSTRATE, "optocoupler": jn.INFRARED_LED,
+    "tl431": jn.SHUNT_REFERENCE_SUBSTRATE,
+}
+
+
+def _junction(part: BoardPart, name: str, anode: str, cathode: str, kind: jn.JunctionKind,
+              offset_v: float = 0.0) -> Junction:
+    """A junction of ``part``, its drop moved by the part's ``drop_shift_v`` (a part at the edge of
+    its type's spread)."""
+    shift = part.figure("drop_shift_v", 0.0)
+    return Junction(name, anode, cathode, kind.shifted(shift) if shift else kind, offset_v)
 
 
 def _check_pins(part: BoardPart) -> None:
@@ -70,9 +100,9 @@ def _resistive(part: BoardPart) -> tuple[Element, ...]:
     """A resistor chain (or fuse, thermistor, conductor): ``count`` equal resistors in series; a
     fault hits the first one."""
     if part.kind == "fuse":
-        total = FUSE_OHM
+        total = part.figure("ohm", FUSE_OHM)
     elif part.kind == "lead":
-        total = LEAD_OHM
+        total = part.figure("ohm", LEAD_OHM)
     else:
         total = part.value
     if total is None:
@@ -117,7 +147,7 @@ def _zener(part: BoardPart) -> tuple[Element, ...]:
         raise ValueError(f"{part.id}: a Zener needs its voltage as value")
     anode, cathode = part.node("anode"), part.node("cathode")
     breakdown_offset = part.value - jn.ZENER_BREAKDOWN.drop(jn.ZENER_TEST_CURRENT)
-    healthy = (Junction(part.id, anode, cathode, jn.ZENER_FORWARD),
+    healthy = (_junction(part, part.id, anode, cathode, jn.ZENER_FORWARD),
                Junction(f"{part.id}.breakdown", cathode, anode, jn.ZENER_BREAKDOWN, breakdown_offset))
     return _two_terminal(part, "anode", "cathode", healthy)
 
@@ -136,7 +166,7 @@ def _bridge(part: BoardPart) -> tuple[Element, ...]:
         if k == 0 and part.mode == "short":
             elements.append(Resistor(f"{name}.short", anode, cathode, SHORT_OHM))
             continue
-        elements.append(Junction(name, anode, cathode, jn.SILICON_RECTIFIER))
+        elements.append(_junction(part, name, anode, cathode, jn.SILICON_RECTIFIER))
     return tuple(elements)
 
 
@@ -155,10 +185,11 @@ def _transformer(part: BoardPart) -> tuple[Element, ...]:
         if f"{winding}_a" not in pins or (winding == "primary" and part.mode == "open"):
             continue
         elements.append(Winding(f"{part.id}.{winding}", part.node(f"{winding}_a"), part.node(f"{winding}_b"),
-                                ohm, part.figure(f"{winding}_henry", 0.0)))
+                                ohm, part.figure(f"{winding}_henry", WINDING_HENRY[winding])))
     return tuple(elements)
 
 
+@lru_cache(maxsize=16384)
 def cold_elements(part: BoardPart) -> tuple[Element, ...]:
     """The elements ``part`` shows a meter in its state."""
     _check_pins(part)
@@ -168,7 +199,7 @@ def cold_elements(part: BoardPart) -> tuple[Element, ...]:
     if kind in ("electrolytic", "film_capacitor"):
         return _capacitor(part)
     if kind in DIODE_JUNCTIONS:
-        healthy = (Junction(part.id, node("anode"), node("cathode"), DIODE_JUNCTIONS[kind]),)
+        healthy = (_junction(part, part.id, node("anode"), node("cathode"), DIODE_JUNCTIONS[kind]),)
         return _two_terminal(part, "anode", "cathode", healthy)
     if kind == "zener":
         return _zener(part)
@@ -176,16 +207,17 @@ def cold_elements(part: BoardPart) -> tuple[Element, ...]:
         return _bridge(part)
     if kind == "mosfet":
         return _two_terminal(part, "drain", "source",
-                             (Junction(f"{part.id}.body", node("source"), node("drain"), jn.BODY_DIODE),))
+                             (_junction(part, f"{part.id}.body", node("source"), node("drain"), jn.BODY_DIODE),))
     if kind == "bjt":
-        junctions = (Junction(f"{part.id}.be", node("base"), node("emitter"), jn.TRANSISTOR_JUNCTION),
-                     Junction(f"{part.id}.bc", node("base"), node("collector"), jn.TRANSISTOR_JUNCTION))
+        junctions = (_junction(part, f"{part.id}.be", node("base"), node("emitter"), jn.TRANSISTOR_JUNCTION),
+                     _junction(part, f"{part.id}.bc", node("base"), node("collector"), jn.TRANSISTOR_JUNCTION))
         if part.mode == "short":  # collector to emitter, the junctions still there [practice]
             return junctions + (Resistor(f"{part.id}.short", node("collector"), node("emitter"), SHORT_OHM),)
         return _two_terminal(part, "collector", "emitter", junctions)
     if kind == "controller":
-        healthy = (Junction(f"{part.id}.substrate", node("gnd"), node("vcc"), jn.IC_SUBSTRATE),
-                   Resistor(f"{part.id}.bias", node("vcc"), node("gnd"), CONTROLLER_VCC_OHM))
+        bias = part.value if part.value is not None else CONTROLLER_VCC_OHM
+        healthy = (_junction(part, f"{part.id}.substrate", node("gnd"), node("vcc"), jn.IC_SUBSTRATE),
+                   Resistor(f"{part.id}.bias", node("vcc"), node("gnd"), bias))
         if part.mode == "dead":
             return healthy
         if part.mode == "short":
@@ -193,11 +225,21 @@ def cold_elements(part: BoardPart) -> tuple[Element, ...]:
         return _two_terminal(part, "vcc", "gnd", healthy)
     if kind == "optocoupler":
         return _two_terminal(part, "anode", "cathode",
-                             (Junction(f"{part.id}.led", node("anode"), node("cathode"), jn.INFRARED_LED),))
+                             (_junction(part, f"{part.id}.led", node("anode"), node("cathode"), jn.INFRARED_LED),))
     if kind == "tl431":
         return _two_terminal(part, "cathode", "anode",
-                             (Junction(f"{part.id}.substrate", node("anode"), node("cathode"),
-                                       jn.SHUNT_REFERENCE_SUBSTRATE),))
+                             (_junction(part, f"{part.id}.substrate", node("anode"), node("cathode"),
+                                        jn.SHUNT_REFERENCE_SUBSTRATE),))
     if kind == "transformer":
         return _transformer(part)
     raise ValueError(f"{part.id}: no cold model for a part of kind '{kind}'")  # pragma: no cover
+
+
+@lru_cache(maxsize=4096)
+def joined_in_any_mode(part: BoardPart) -> frozenset[tuple[str, str]]:
+    """Every pair of nodes some state of ``part`` joins with an element: a failure never joins
+    nodes outside this set, so a reading whose measured network stays clear of it cannot change."""
+    pairs: set[tuple[str, str]] = set()
+    for mode in ("ok",) + MODES[part.kind]:
+        pairs.update(tuple(sorted(e.nodes)) for e in cold_elements(replace(part, mode=mode)))
+    return frozenset(pairs)

@@ -65,8 +65,10 @@ def _discharged_value(netlist: ColdNetlist, red: str, black: str, source: MeterS
 
 
 def ohms(netlist: ColdNetlist, red: str, black: str, meter: Meter = HANDHELD,
-         low_voltage: bool = False) -> MeterReading:
-    """The autoranged ohms reading, red probe on ``red``: the lowest range that holds it."""
+         low_voltage: bool = False, touch: bool = True) -> MeterReading:
+    """The autoranged ohms reading, red probe on ``red``: the lowest range that holds it.
+    ``touch=False`` skips the reading at the touch of the probes (``initial`` is then the settled
+    value)."""
     elements = netlist.elements
     ranges = meter.ranges(low_voltage)
     points: dict[int, OperatingPoint] = {}
@@ -91,7 +93,7 @@ def ohms(netlist: ColdNetlist, red: str, black: str, meter: Meter = HANDHELD,
         while k > 0 and not math.isinf(reading(k - 1)):
             k -= 1
     value = (first if first <= ranges[k].full_scale else OL) if linear else _ohms_of(points[k], ranges[k])
-    initial = _discharged_value(netlist, red, black, ranges[k], value, _ohms_of)
+    initial = _discharged_value(netlist, red, black, ranges[k], value, _ohms_of) if touch else value
     return MeterReading("ohmmeter", value, initial, ranges[k], points[k])
 
 
@@ -103,13 +105,14 @@ def ohms_on_range(netlist: ColdNetlist, red: str, black: str, source: MeterSourc
                         source, point)
 
 
-def diode_test(netlist: ColdNetlist, red: str, black: str, meter: Meter = HANDHELD) -> MeterReading:
+def diode_test(netlist: ColdNetlist, red: str, black: str, meter: Meter = HANDHELD,
+               touch: bool = True) -> MeterReading:
     """The diode-test reading, red probe on ``red`` (on a healthy diode: red on the anode)."""
     source = meter.diode_test
     point = operating_point(netlist.elements, red, black, source)
     value = _volts_of(point, source)
-    return MeterReading("diode_test", value, _discharged_value(netlist, red, black, source, value, _volts_of),
-                        source, point)
+    initial = _discharged_value(netlist, red, black, source, value, _volts_of) if touch else value
+    return MeterReading("diode_test", value, initial, source, point)
 
 
 def both_ways(netlist: ColdNetlist, a: str, b: str, instrument: str,

@@ -26,7 +26,7 @@ from fixbench.physics.cold.elements import Capacitor, Element, Junction, Resisto
 
 GMIN = 1e-12  # S [src: ngspice manual, GMIN default]
 VOLT_TOLERANCE = 1e-9  # V: absolute node-voltage convergence
-RELATIVE_TOLERANCE = 1e-9
+RELATIVE_TOLERANCE = 1e-7  # above the rounding noise of nearly floating nodes (a few 1e-9 V)
 MAX_ITERATIONS = 300
 DISCHARGED_FLOOR_OHM = 1e-3  # a discharged capacitor with no stated ESR still has its leads
 
@@ -97,17 +97,16 @@ def operating_point(elements: tuple[Element, ...], red: str, black: str, source:
 
 def _limit(v_new: np.ndarray, v_old: np.ndarray, slope: np.ndarray, critical: np.ndarray) -> np.ndarray:
     """SPICE's pnjlim: above the critical voltage, a step up is taken on the log of the current."""
-    limited = v_new.copy()
     big = (v_new > critical) & (np.abs(v_new - v_old) > 2.0 * slope)
-    if big.any():
-        up = big & (v_old > 0.0)
-        arg = 1.0 + (v_new - v_old) / slope
-        with np.errstate(invalid="ignore", divide="ignore"):
-            from_old = v_old + slope * np.log(np.where(arg > 0.0, arg, 1.0))
-            from_zero = slope * np.log(np.where(v_new > 0.0, v_new / slope, 1.0))
-        limited = np.where(up, np.where(arg > 0.0, from_old, critical), limited)
-        limited = np.where(big & ~(v_old > 0.0), from_zero, limited)
-    return limited
+    if not big.any():
+        return v_new
+    up = big & (v_old > 0.0)
+    arg = 1.0 + (v_new - v_old) / slope
+    with np.errstate(invalid="ignore", divide="ignore"):
+        from_old = v_old + slope * np.log(np.where(arg > 0.0, arg, 1.0))
+        from_zero = slope * np.log(np.where(v_new > 0.0, v_new / slope, 1.0))
+    limited = np.where(up, np.where(arg > 0.0, from_old, critical), v_new)
+    return np.where(big & ~(v_old > 0.0), from_zero, limited)
 
 
 @dataclass(frozen=True, eq=False)
@@ -196,21 +195,18 @@ def newton(p: _Prepared, linear: np.ndarray, rhs: np.ndarray, start: np.ndarray,
     volts = np.zeros(size + 1)  # the last entry stands for the black probe at 0 V (index -1)
     volts[:size] = start
     v_junction = volts[p.anode] - volts[p.cathode] - p.offset
+    shape = (size, size)
     for _ in range(MAX_ITERATIONS):
         v_try = volts[p.anode] - volts[p.cathode] - p.offset
         v_junction = _limit(v_try, v_junction, p.slope, p.critical)
         exp_term = np.exp(v_junction / p.slope)
         conductance = p.saturation * exp_term / p.slope + GMIN
-        current = p.saturation * (exp_term - 1.0) + GMIN * v_junction
-        equivalent = current - conductance * (v_junction + p.offset)
-        matrix = (linear + p.stamp @ conductance).reshape(size, size)
-        solved = np.zeros(size + 1)
-        solved[:size] = np.linalg.solve(matrix, rhs + p.inject @ equivalent)
-        step = float(np.max(np.abs(solved - volts)))
-        volts = solved
-        limited = bool(len(v_try)) and float(np.max(np.abs(v_junction - v_try))) > 1e-12
-        if step <= VOLT_TOLERANCE + RELATIVE_TOLERANCE * float(np.max(np.abs(volts))) and not limited:
-            return volts[:size]
+        equivalent = p.saturation * (exp_term - 1.0) + GMIN * v_junction - conductance * (v_junction + p.offset)
+        solved = np.linalg.solve((linear + p.stamp.dot(conductance)).reshape(shape), rhs + p.inject.dot(equivalent))
+        step = np.abs(solved - volts[:size]).max()
+        volts[:size] = solved
+        if step <= VOLT_TOLERANCE + RELATIVE_TOLERANCE * np.abs(solved).max() and (v_junction == v_try).all():
+            return solved
     raise ConvergenceError(f"no DC solution across {label} after {MAX_ITERATIONS} iterations")
 
 
@@ -219,3 +215,19 @@ def _point(volts: np.ndarray, p: _Prepared, red: str, black: str, source: MeterS
     amps = (source.open_circuit_v - v_red) / source.source_ohm
     node_volts = tuple(zip(p.nodes, (float(v) for v in volts))) + ((black, 0.0),)
     return OperatingPoint(v_red, amps, node_volts)
+
+
+def branch_currents(elements: tuple[Element, ...], point: OperatingPoint) -> dict[str, float]:
+    """The current in each resistive element and junction of the measured block at ``point``
+    (elements outside the block carry none)."""
+    volts = dict(point.node_volts)
+    currents = {}
+    for e in elements:
+        if e.nodes[0] not in volts or e.nodes[1] not in volts:
+            continue
+        across = volts[e.nodes[0]] - volts[e.nodes[1]]
+        if isinstance(e, (Resistor, Winding)):
+            currents[e.name] = across / e.ohm
+        elif isinstance(e, Junction):
+            currents[e.name] = e.kind.current(across - e.offset_v) + GMIN * (across - e.offset_v)
+    return currents

@@ -15,7 +15,8 @@ from fixbench.physics.cold.netlist import ColdNetlist
 
 def _part(part_id: str, kind: str, value: float | None = None, tolerance: float = 0.0,
           extra: tuple = (), **pins: str) -> BoardPart:
-    return BoardPart(part_id, kind, tuple(pins.items()), value, tolerance=tolerance, extra=extra)
+    return BoardPart(part_id, kind, tuple(pins.items()), value, spread=(1.0 - tolerance, 1.0 + tolerance),
+                     extra=extra)
 
 
 def _mains_and_bulk(fuse_kind: str = "fuse", thermistor: bool = True) -> list[BoardPart]:
