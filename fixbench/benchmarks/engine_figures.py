@@ -35,6 +35,7 @@ from fixbench.engine.optimal import reduced_comparison
 from fixbench.engine.simulate import simulated_unit
 from fixbench.knowledge import KnowledgeBase, load_knowledge
 from fixbench.knowledge.graph import power_order
+from fixbench.physics.cold.probing import solved_readings
 from fixbench.physics.ratings import parse_ratings
 
 # One unit of each family the benchmark draws faults for.
@@ -163,6 +164,13 @@ def run_benchmark(seed: int = 0, units_per_family: int = 150, kb: KnowledgeBase 
     rng = random.Random(seed)
     exact, noisy, engine_min, fixed_min, bounds, unsafe = [], [], [], [], [], 0
     timings: list[float] = []
+    # Each family's model built once, timed: the operating model of every hypothesis and every cold
+    # reading solved on the family's board (the first build in the process; later ones are cached).
+    build_ms = {}
+    for family in kb.families.values():
+        started = time.perf_counter()
+        cached_fault_model(family, parse_ratings(BENCH_RATINGS.get(family.id, DEFAULT_RATINGS)))
+        build_ms[family.id] = 1000 * (time.perf_counter() - started)
     largest = max(kb.families.values(), key=lambda f: len(cached_fault_model(
         f, parse_ratings(BENCH_RATINGS.get(f.id, DEFAULT_RATINGS))).hypotheses))
     sizes = {}
@@ -187,7 +195,9 @@ def run_benchmark(seed: int = 0, units_per_family: int = 150, kb: KnowledgeBase 
     optimal = reduced_comparison(largest, parse_ratings(BENCH_RATINGS.get(largest.id, DEFAULT_RATINGS)))
     return {
         "units": len(exact),
-        "families": {fid: {"hypotheses": h, "checks": c} for fid, (h, c) in sizes.items()},
+        "families": {fid: {"hypotheses": h, "checks": c, "model_build_ms": build_ms[fid]}
+                     for fid, (h, c) in sizes.items()},
+        "cold_readings_solved": solved_readings(),
         "top1_exact": sum(r.correct_top1 for r in exact) / len(exact),
         "top1_noisy": sum(r.correct_top1 for r in noisy) / len(noisy),
         "top3_noisy": sum(r.correct_top3 for r in noisy) / len(noisy),
@@ -210,7 +220,9 @@ def run_benchmark(seed: int = 0, units_per_family: int = 150, kb: KnowledgeBase 
 def print_report(result: dict) -> None:
     print(f"engine benchmark: {result['units']} simulated units, seed {result['seed']}")
     for fid, size in result["families"].items():
-        print(f"  {fid}: {size['hypotheses']} hypotheses, {size['checks']} checks")
+        print(f"  {fid}: {size['hypotheses']} hypotheses, {size['checks']} checks, model built in "
+              f"{size['model_build_ms']:.0f} ms")
+    print(f"  cold network: {result['cold_readings_solved']} distinct in-circuit readings solved")
     print(f"  top-1, exact readings          {result['top1_exact']:.1%}   (target >= 97 %)")
     print(f"  top-1, 5 % wrong + tolerance   {result['top1_noisy']:.1%}   (target >= 90 %)")
     print(f"  top-3, 5 % wrong + tolerance   {result['top3_noisy']:.1%}   (target >= 98 %)")

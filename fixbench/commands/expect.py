@@ -5,6 +5,7 @@ from __future__ import annotations
 from fixbench.commands._output import print_json, print_table
 from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
 from fixbench.engine.fault_model import cached_fault_model
+from fixbench.physics.part_values import VALUE_UNITS, value_of
 from fixbench.quantities import format_band, format_quantity
 
 FIGURE_TITLES = {
@@ -22,6 +23,9 @@ HELP = "print the readings a healthy unit of given ratings shows at each test po
 
 def add_arguments(parser) -> None:
     add_unit_arguments(parser)
+    parser.add_argument("--cold", action="store_true",
+                        help="only the cold checks of parts, as a meter reads them on the assembled board, "
+                             "with the marked value of the part each one targets (part_value)")
     parser.add_argument("--json", action="store_true", help="print a JSON list of rows for scripts")
 
 
@@ -42,16 +46,47 @@ def healthy_rows(family, ratings) -> list[dict]:
     return rows
 
 
+def cold_rows(family, ratings) -> list[dict]:
+    """The cold checks of parts: in-circuit nominal and band (SI), and the value the targeted part
+    is marked with (SI; None where its kind has no value that the check reads, e.g. a diode)."""
+    model = cached_fault_model(family, ratings)
+    rows = []
+    for cm in model.checks:
+        check = cm.check
+        if check.target_kind != "part" or check.power != "cold" or check.unit is None:
+            continue
+        part = family.part(check.target_id)
+        rows.append({"point": "/".join(check.points), "check": check.id, "title": check.title,
+                     "instrument": check.instrument, "power": check.power, "unit": check.unit,
+                     "nominal": cm.healthy.nominal, "low": cm.healthy.low, "high": cm.healthy.high,
+                     "part": part.id, "part_value": value_of(part, ratings, family.design),
+                     "lift": ".".join(check.lift) if check.lift else None})
+    return rows
+
+
 def run(args) -> int:
     family, ratings = family_and_ratings(args.family, ratings_text(args))
-    rows = healthy_rows(family, ratings)
+    rows = cold_rows(family, ratings) if args.cold else healthy_rows(family, ratings)
     if args.json:
         print_json(rows)
         return 0
     print(f"{family.title}: {format_quantity(ratings.output_v, 'V')} {format_quantity(ratings.output_a, 'A')}, "
           f"mains on the bench {format_quantity(ratings.bench_mains, 'V')} {format_quantity(ratings.mains_hz, 'Hz')}")
+    if args.cold:
+        print("In circuit, on a 4000-count handheld meter; a lifted leg is named where a check lifts one.")
+        print_table(["check", "part", "marked", "lift", "healthy", "band"],
+                    [[r["title"], r["part"], _marked(family, r), r["lift"] or "",
+                      format_quantity(r["nominal"], r["unit"], 4) if r["nominal"] is not None else "OL",
+                      format_band(r["low"], r["high"], r["unit"])] for r in rows])
+        return 0
     print_table(["check", "power", "points", "healthy", "band"],
                 [[r["title"], r["power"] or "", r["point"],
                   format_quantity(r["nominal"], r["unit"], 4) if r["nominal"] is not None else "",
                   format_band(r["low"], r["high"], r["unit"])] for r in rows])
     return 0
+
+
+def _marked(family, row: dict) -> str:
+    if row["part_value"] is None:
+        return ""
+    return format_quantity(row["part_value"], VALUE_UNITS[family.part(row["part"]).kind])

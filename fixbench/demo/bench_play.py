@@ -25,7 +25,7 @@ from fixbench.engine.repair_order import REPLACE_MINUTES
 from fixbench.engine.simulate import simulated_unit
 from fixbench.knowledge.design import Design
 from fixbench.knowledge.model import Family, Part
-from fixbench.physics.parts import VALUE_UNITS, rated_voltage, value_of
+from fixbench.physics.part_values import VALUE_UNITS, rated_voltage, value_of
 from fixbench.physics.ratings import Ratings, parse_ratings
 from fixbench.quantities import format_quantity
 from fixbench.store.cases import RankedSuspect

@@ -95,12 +95,10 @@ def _check_model(family: Family, ratings: Ratings, healthy: HealthyUnit, check: 
                  hypotheses: tuple[Hypothesis, ...], operations: tuple[Operation, ...]) -> CheckModel:
     rows, values = [], []
     if check.target_kind == "part":
-        part = family.part(check.target_id)
-        expect = cold_expectation(part, check.instrument, ratings, family.design)
+        expect = cold_expectation(family, check, ratings)
         classes = numeric_classes(check.instrument, expect)
         for hypothesis in hypotheses:
-            mode = dict(hypothesis.modes).get(part.id, "ok")
-            value = cold_reading(part, mode, check.instrument, ratings, family.design)
+            value = cold_reading(family, ratings, check, dict(hypothesis.modes))
             values.append(value)
             rows.append(_class_probabilities(classes, value))
         healthy_outcome = None

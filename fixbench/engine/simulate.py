@@ -90,9 +90,7 @@ class SimulatedUnit:
                 outcome = self.rng.choice([n for n in names if n != outcome] or names)
             return outcome
         if check.target_kind == "part":
-            part = self.model.family.part(check.target_id)
-            value = cold_reading(part, self.modes.get(part.id, "ok"), check.instrument,
-                                 self.model.ratings, self.model.family.design)
+            value = cold_reading(self.model.family, self.model.ratings, check, self.modes)
         else:
             value = operation.values[check.target_id]
         if self.wrong_rate and self.rng.random() < self.wrong_rate:

@@ -92,6 +92,8 @@ def _part(part: model.Part, stage_id: str, new_id: str, over: Reader | None) -> 
 def _check(check: model.Check, renames: dict[str, str], over: Reader | None) -> model.Check:
     if check.target_kind == "part" and check.target_id in renames:
         check = replace(check, target=f"part:{renames[check.target_id]}")
+    if check.lift is not None and check.lift[0] in renames:
+        check = replace(check, lift=(renames[check.lift[0]], check.lift[1]))
     if over is None:
         return check
     minutes = over.get("minutes", float, check.minutes)

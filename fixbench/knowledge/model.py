@@ -62,6 +62,27 @@ PART_KINDS = (
     "rectifier_diode", "schottky", "zener", "mosfet", "bjt", "controller", "transformer",
     "optocoupler", "tl431", "lead",
 )
+# The pins of each kind of part, as the cold netlist names them, and those a stage file must place
+# (a transformer has only the windings it is wound with; a controller's drive and FB pins may go
+# unplaced where nothing of the model meets them).
+KIND_PINS: dict[str, tuple[str, ...]] = {
+    "fuse": ("a", "b"), "thermistor": ("a", "b"), "resistor": ("a", "b"), "lead": ("a", "b"),
+    "electrolytic": ("plus", "minus"), "film_capacitor": ("a", "b"),
+    "rectifier_diode": ("anode", "cathode"), "fast_diode": ("anode", "cathode"),
+    "schottky": ("anode", "cathode"), "zener": ("anode", "cathode"),
+    "bridge": ("ac1", "ac2", "plus", "minus"),
+    "mosfet": ("drain", "gate", "source"), "bjt": ("base", "collector", "emitter"),
+    "controller": ("vcc", "gnd", "drive", "fb"),
+    "optocoupler": ("anode", "cathode", "collector", "emitter"),
+    "tl431": ("cathode", "anode", "ref"),
+    "transformer": ("primary_a", "primary_b", "aux_a", "aux_b", "secondary_a", "secondary_b"),
+}
+KIND_REQUIRED_PINS: dict[str, tuple[str, ...]] = {
+    "transformer": ("primary_a", "primary_b"), "controller": ("vcc", "gnd"),
+}
+# How the readings of a cold check's several probe pairs make the one number entered.
+COMBINES = ("one", "odd_one_out", "lowest")
+LIFTED_LEG = "lifted"  # a probe written this way goes on the leg the check lifts
 
 
 @dataclass(frozen=True)
@@ -90,6 +111,10 @@ class Part:
     value: str | None = None  # "22 uF", "rule:bulk_capacitance" or None where a value means nothing
     rated: str | None = None  # voltage rating of a capacitor, same forms as value
     cost: float = 0.0
+    pins: tuple[tuple[str, str], ...] = ()  # (pin, node) in the cold netlist, e.g. ("a", "bulk_plus")
+
+    def node(self, pin: str) -> str:
+        return dict(self.pins)[pin]
 
 
 @dataclass(frozen=True)
@@ -111,6 +136,11 @@ class Check:
     how: str
     outcomes: tuple[str, ...] = ()
     procedure: bool = False  # a safety step that tells nothing about the fault
+    # Cold checks of a part: the nodes the probes go on, red first, one pair per leg; how several
+    # legs make one number; and a leg (part, pin) lifted off its pad first.
+    probes: tuple[tuple[str, str], ...] = ()
+    combine: str = "one"
+    lift: tuple[str, str] | None = None
 
     @property
     def unit(self) -> str | None:

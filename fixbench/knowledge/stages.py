@@ -67,6 +67,23 @@ class StageTemplate:
     keys: dict[tuple[str, str], str]
 
 
+def parse_pins(row: Reader, kind: str) -> tuple[tuple[str, str], ...]:
+    """Where the part's pins sit in the cold netlist: ``pins = { a = "bulk_plus", b = "vcc" }``."""
+    table = row.table_at("pins")
+    known = model.KIND_PINS[kind]
+    for pin in table.table:
+        if pin not in known:
+            raise table.fail(pin, f"a {kind} has no pin '{pin}' (its pins: {', '.join(known)})")
+    for pin in model.KIND_REQUIRED_PINS.get(kind, known):
+        if pin not in table.table:
+            raise table.fail(pin, f"missing: say which node the {kind}'s '{pin}' pin sits on")
+    pins = tuple((pin, table.get(pin, str)) for pin in known if pin in table.table)
+    for pin, node in pins:
+        if not node or node == model.LIFTED_LEG or not node.replace("_", "").isalnum():
+            raise table.fail(pin, f"'{node}' is not a node name (letters, digits and _; not '{model.LIFTED_LEG}')")
+    return pins
+
+
 def parse_part(row: Reader, stage: str = "") -> model.Part:
     kind = row.get("kind", str, choices=model.PART_KINDS)
     unit = PART_VALUE_UNITS.get(kind)
@@ -74,15 +91,39 @@ def parse_part(row: Reader, stage: str = "") -> model.Part:
     return model.Part(
         id=row.get("id", str), stage=stage, kind=kind, role=row.get("role", str, choices=tuple(model.PART_ROLES)),
         title=row.get("title", str), value=value, rated=check_value_text(row, "rated", "V"),
-        cost=row.get("cost", float, 0.0),
+        cost=row.get("cost", float, 0.0), pins=parse_pins(row, kind),
     )
+
+
+def parse_probing(row: Reader) -> dict:
+    """A cold check's probes (red first, a pair per leg), how its legs combine, and a lifted leg
+    written "PART.pin"."""
+    probes = []
+    for i, pair in enumerate(row.get("probes", list, [])):
+        if not (isinstance(pair, list) and len(pair) == 2 and all(isinstance(n, str) for n in pair)):
+            raise row.fail(f"probes[{i}]", "expected a pair of node names, red first: [\"vcc\", \"primary_ground\"]")
+        if pair[0] == pair[1]:
+            raise row.fail(f"probes[{i}]", "both probes on one node")
+        probes.append((pair[0], pair[1]))
+    combine = row.get("combine", str, "one", choices=model.COMBINES)
+    if combine == "one" and len(probes) > 1:
+        raise row.fail("probes", f"{len(probes)} pairs of probes need combine = \"odd_one_out\"")
+    lift = row.get("lift", str, None)
+    if lift is not None:
+        part, dot, pin = lift.partition(".")
+        if not dot or not part or not pin:
+            raise row.fail("lift", f"'{lift}' must name a part's pin as PART.pin, e.g. \"R5.b\"")
+        lift = (part, pin)
+    if any(model.LIFTED_LEG in pair for pair in probes) and lift is None:
+        raise row.fail("probes", f"a probe on the '{model.LIFTED_LEG}' leg needs lift = \"PART.pin\"")
+    return {"probes": tuple(probes), "combine": combine, "lift": lift}
 
 
 def parse_checks(reader: Reader) -> list[model.Check]:
     checks = []
     for row in reader.items("checks", required=False):
         row.unknown_keys({"id", "title", "instrument", "power", "points", "target", "minutes", "how",
-                          "outcomes", "procedure"})
+                          "outcomes", "procedure", "probes", "combine", "lift"})
         instrument = row.get("instrument", str, choices=tuple(model.INSTRUMENT_UNITS))
         target = row.get("target", str)
         if target.split(":", 1)[0] not in ("part", "signal") or ":" not in target:
@@ -99,10 +140,15 @@ def parse_checks(reader: Reader) -> list[model.Check]:
         points = row.strings("points")
         if power in ("cold", "lamp", "live") and not points:
             raise row.fail("points", "the check touches the unit but names no test point")
+        probing = parse_probing(row)
+        if target.startswith("part:") and instrument in COLD_INSTRUMENTS and not probing["probes"]:
+            raise row.fail("probes", "a cold check of a part says which nodes the probes go on, red first")
+        if probing["probes"] and not (target.startswith("part:") and instrument in COLD_INSTRUMENTS):
+            raise row.fail("probes", f"only cold checks of a part ({', '.join(COLD_INSTRUMENTS)}) take probes")
         checks.append(model.Check(
             id=row.get("id", str), title=row.get("title", str), instrument=instrument, power=power,
             points=points, target=target, minutes=minutes, how=row.get("how", str), outcomes=outcomes,
-            procedure=row.get("procedure", bool, False),
+            procedure=row.get("procedure", bool, False), **probing,
         ))
     return checks
 
@@ -140,7 +186,7 @@ def parse_stage(path: Path, name: str) -> StageTemplate:
     keys: dict[tuple[str, str], str] = {}
     parts = []
     for row in reader.items("parts", required=False):
-        row.unknown_keys({"id", "kind", "role", "title", "value", "rated", "cost"})
+        row.unknown_keys({"id", "kind", "role", "title", "value", "rated", "cost", "pins"})
         part = parse_part(row)
         if role not in model.PART_ROLES[part.role]:
             raise row.fail("role", f"a '{part.role}' part belongs in a stage with role "
@@ -161,6 +207,13 @@ def parse_stage(path: Path, name: str) -> StageTemplate:
         if check.target_kind == "part" and check.target_id not in by_id:
             raise reader.fail(f"checks[{i}].target", f"check '{check.id}' names part '{check.target_id}', "
                                                      "which is not a part of this stage")
+        if check.lift is not None:
+            part_id, pin = check.lift
+            if part_id not in by_id:
+                raise reader.fail(f"checks[{i}].lift", f"'{part_id}' is not a part of this stage")
+            if pin not in dict(by_id[part_id].pins):
+                raise reader.fail(f"checks[{i}].lift", f"{part_id} has no pin '{pin}' placed "
+                                                       f"(its pins: {', '.join(dict(by_id[part_id].pins))})")
     _duplicate(reader, "checks", [c.id for c in checks])
     faults = []
     for row in reader.items("faults", required=False):

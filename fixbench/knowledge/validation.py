@@ -68,8 +68,34 @@ def validate_family(family: model.Family, fail: Callable[[str, str], Exception])
                 allowed = ", ".join(model.KIND_MODES[parts[part_id].kind])
                 raise fail(f"faults[{i}]{key}.mode", f"'{mode}' is not a failure mode of a "
                            f"{parts[part_id].kind} (use {allowed})")
+    _validate_netlist(family, fail)
     cold_targets = {c.target_id for c in family.checks
                     if c.target_kind == "part" and c.instrument in COLD_INSTRUMENTS}
     for i, fault in enumerate(family.faults):
         if fault.part not in cold_targets:
             raise fail(f"faults[{i}].part", f"part '{fault.part}' can fail but no cold check tells its state")
+
+
+def _validate_netlist(family: model.Family, fail: Callable[[str, str], Exception]) -> None:
+    """The cold netlist: every part placed, every probe on a node some pin sits on, and no node that
+    only one pin reaches unless a check probes it (a misspelt node name would leave a pin floating)."""
+    touches: Counter[str] = Counter()
+    for i, part in enumerate(family.parts):
+        if not part.pins:
+            raise fail(f"parts[{i}].pins", f"part '{part.id}' has no pins: say which nodes it sits on")
+        touches.update(node for _, node in part.pins)
+    probed = set()
+    for i, check in enumerate(family.checks):
+        for j, pair in enumerate(check.probes):
+            for node in pair:
+                if node == model.LIFTED_LEG:
+                    continue
+                if node not in touches:
+                    raise fail(f"checks[{i}].probes[{j}]", f"check '{check.id}' probes node '{node}', which no "
+                                                           "part's pin sits on")
+                probed.add(node)
+    for i, part in enumerate(family.parts):
+        for pin, node in part.pins:
+            if touches[node] < 2 and node not in probed:
+                raise fail(f"parts[{i}].pins.{pin}", f"node '{node}' of part '{part.id}' meets no other pin and "
+                                                     "no check probes it: a misspelt node name?")

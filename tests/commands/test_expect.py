@@ -53,3 +53,45 @@ def test_bad_arguments_exit_2_with_one_line(capsys, args, message):
     assert main(["expect", *args]) == 2
     err = capsys.readouterr().err
     assert message in err and len(err.strip().splitlines()) == 1
+
+
+def _cold_rows(capsys, *args):
+    assert main(["expect", *args, "--cold", "--json"]) == 0
+    return {r["check"]: r for r in json.loads(capsys.readouterr().out)}
+
+
+def test_good_upper_fb_resistor_is_in_range_at_its_in_circuit_value(capsys):
+    # Issue 10 measured on main: `fixbench expect --family primary_side --mains 120 --output 5V
+    # --current 2A` expected the upper FB resistor at 37.6-49.4 kohm, its value out of circuit, so a
+    # good part, which reads about R_upper || R_lower on the board, was flagged.
+    rows = _cold_rows(capsys, "--family", "primary_side", "--mains", "120", "--output", "5V", "--current", "2A")
+    upper = rows["fb_divider_upper"]
+    assert upper["part_value"] == pytest.approx(47e3)
+    lower = rows["fb_divider_lower"]["part_value"]
+    in_circuit = 1.0 / (1.0 / 47e3 + 1.0 / (lower + 1.0))  # the lower resistor through the winding [closed form: parallel]
+    assert upper["low"] <= in_circuit <= upper["high"]
+    assert upper["high"] < 0.80 * 47e3  # the old out-of-circuit band would not hold it
+    lifted = rows["fb_divider_upper_lifted"]
+    assert lifted["lift"] == "R5.b" and lifted["low"] <= 47e3 <= lifted["high"]
+
+
+@pytest.mark.parametrize("family", ["primary_side", "pwm_flyback", "self_oscillating"])
+def test_cold_rows_list_every_cold_part_check_with_its_part_value(capsys, family):
+    rows = _cold_rows(capsys, "--family", family, "--mains", "230", "--output", "5V", "--current", "2A")
+    assert rows
+    for row in rows.values():
+        assert {"check", "nominal", "low", "high", "part_value"} <= set(row)
+        assert row["power"] == "cold"
+        if row["nominal"] is not None and row["low"] is not None and row["high"] is not None:
+            assert row["low"] <= row["nominal"] <= row["high"]
+    resistors = [r for r in rows.values() if r["instrument"] == "ohmmeter" and r["part_value"] is not None]
+    assert resistors and all(r["part_value"] > 0 for r in resistors)
+    diodes = [r for r in rows.values() if r["instrument"] == "diode_test"]
+    assert diodes and all(r["part_value"] is None for r in diodes if r["part"].startswith("D"))
+
+
+def test_bridge_check_tells_an_open_diode(capsys):
+    # Issue 10: "enter the lowest forward reading" hid an open bridge diode.
+    assert main(["simulate", "--family", "pwm_flyback", "--fault", "BD1.open", "--exact", "--json"]) == 0
+    readings = {r["check"]: r["value"] for r in json.loads(capsys.readouterr().out)["readings"]}
+    assert readings["bridge_diode_test"] == "OL"

@@ -1,6 +1,7 @@
 import json
 
 from fixbench.cli import main
+from fixbench.quantities import parse_quantity
 
 
 def test_same_seed_gives_the_same_readings(capsys):
@@ -16,7 +17,9 @@ def test_open_start_resistor_unit_reads_zero_vcc_and_a_full_bulk_rail(capsys):
     assert main(["simulate", "--family", "pwm_flyback", "--fault", "R1.open", "--exact", "--json"]) == 0
     readings = {r["check"]: r["value"] for r in json.loads(capsys.readouterr().out)["readings"]}
     assert readings["vcc_voltage"] == "0 V"
-    assert readings["start_resistor"] == "OL"
+    # In circuit an open start-up resistor reads only the junction leakage behind it: tens of megohm,
+    # far above the resistor's band [cold network; practice: "reads OL or near it"].
+    assert parse_quantity(readings["start_resistor"], "ohm").value > 5e6
     # 230 V mains: bulk at about 1.41 x 230 V less two diode drops [src: IEC 60038; trade primer section 6]
     assert readings["bulk_voltage"].endswith(" V") and 318 < float(readings["bulk_voltage"].split()[0]) < 326
 

@@ -67,7 +67,7 @@ def test_shorted_mosfet_lights_the_lamp_bright_and_would_blow_the_fuse(run, fami
     operation = run({"Q1": "short"})
     assert operation.outcomes["lamp"] == {"bright": 1.0}  # lamp glows brightly on a short [practice; trade primer section 5]
     assert operation.fuse_blows and operation.primary_short  # dead, fuse blown [practice; trade primer section 6]
-    drain_source = cold_reading(family.part("Q1"), "short", "ohmmeter", ratings, family.design)
+    drain_source = cold_reading(family, ratings, family.check("mosfet_drain_source"), {"Q1": "short"})
     assert drain_source < 1.0  # drain-source ~0 [practice; trade primer section 6]
 
 
@@ -75,7 +75,7 @@ def test_shorted_bridge_diode_lights_the_lamp_bright_and_would_blow_the_fuse(run
     operation = run({"BD1": "short"})
     assert operation.outcomes["lamp"] == {"bright": 1.0}  # [practice; trade primer section 5]
     assert operation.fuse_blows and operation.primary_short  # dead, fuse blown [practice; trade primer section 6]
-    leg = cold_reading(family.part("BD1"), "short", "diode_test", ratings, family.design)
+    leg = cold_reading(family, ratings, family.check("bridge_diode_test"), {"BD1": "short"})
     assert leg < 0.1  # one bridge leg reads ~0 [practice; trade primer section 6]
 
 
@@ -112,7 +112,7 @@ def test_open_feedback_runs_the_output_well_above_nominal(run, model, modes):
 
 
 def test_open_opto_led_reads_open_on_diode_test(family, ratings):
-    reading = cold_reading(family.part("U2"), "open", "diode_test", ratings, family.design)
+    reading = cold_reading(family, ratings, family.check("opto_led_test"), {"U2": "open"})
     assert math.isinf(reading)  # opto LED reads open [practice; trade primer section 6]
 
 

@@ -4,12 +4,13 @@ fixbench's own solver.
 Every element joined to the probes by some path goes into the deck, not only the block fixbench
 solves, so its topology reduction is checked too; parts with no galvanic path to either probe (the
 other side of the isolation slot) are left out, since ngspice can only pin such an island to ground
-through its node shunts, which leaves its matrix too ill-conditioned to solve. Resistors and winding resistances are R cards, capacitors C cards (open in
-an operating point), junctions D cards with their own .model (IS, N; RS = 0), a junction with an
-offset is a D card in series with a DC source, and the meter is its open-circuit voltage behind its
-source resistance with the black probe on ground. ``.option rshunt`` puts 1e12 ohm from every node
-to ground so nodes reached only through capacitors have a DC path; it shifts no reading by more than
-a few parts per million at the meter's highest range. Several probe set-ups run in one deck as
+through its node shunts, which leaves its matrix too ill-conditioned to solve. Resistors and winding
+resistances are R cards, capacitors C cards (open in an operating point), junctions D cards with
+their own .model (IS, N; RS = 0), a junction with an offset is a D card in series with a DC source,
+and the meter is its open-circuit voltage behind its source resistance with the black probe on
+ground. ``.option rshunt`` puts 1e14 ohm from every node to ground so nodes reached only through
+capacitors have a DC path (1e12 ohm in the transients); on a board of tens of nodes it shifts a
+reading of tens of megohms by a few parts per million. Several probe set-ups run in one deck as
 copies of the board that share only the ground node, so each copy carries only its own meter's
 current.
 """
@@ -94,7 +95,7 @@ def op_deck(probes: list[Probe]) -> tuple[str, list[str]]:
                    for (saturation, emission), name in models.items()]
     control = [".control", "set numdgt=12", "op"] + [f'echo "{RESULT_TAG} {k} $&v({red})"' for k, red in enumerate(reds)]
     deck = ["* fixbench cold network operating points",
-            ".options rshunt=1e12 reltol=1e-6 vntol=1e-10 abstol=1e-15 gmin=1e-12",
+            ".options rshunt=1e14 reltol=1e-6 vntol=1e-10 abstol=1e-15 gmin=1e-12",
             *model_lines, *body, *control, "quit", ".endc", ".end", ""]
     return "\n".join(deck), reds
 

@@ -8,9 +8,13 @@ that the small signal keeps off.
 
 - ESR meter: the real part of the impedance between the probes at 100 kHz [memory: ESR meters test
   at about 100 kHz with a few hundred millivolts at most, so junctions stay off in circuit].
-- Capacitance range: the imaginary part of the admittance over omega, at 100 Hz [memory: handheld
-  capacitance ranges time a charge and discharge; taken here as a sine at about that rate]; a
-  resistance across the capacitor adds only a real part, so it does not move the reading.
+- Capacitance range: the series capacitance of the impedance, -1 / (omega Im Z), at 100 Hz [memory:
+  handheld capacitance ranges time a charge and discharge; taken here as a sine at about that rate],
+  so a capacitor reads its own value whatever its ESR, and a high resistance across it barely moves
+  the reading. Where the resistive part of the impedance is larger than the capacitive one
+  (dissipation factor above 1: a short or a winding across the capacitor), the meter's charge never
+  ramps and it shows nothing: read as 0 [practice: a capacitor shunted by a low resistance reads
+  zero or will not read].
 """
 
 from __future__ import annotations
@@ -26,6 +30,7 @@ from fixbench.physics.cold.solve import GMIN, measured_block
 ESR_METER_HZ = 100e3
 CAPACITANCE_METER_HZ = 100.0
 ESR_FLOOR_OHM = 1e-3
+CAPACITANCE_RESOLUTION_F = 10e-12  # below this a handheld capacitance range shows 0 [memory]
 
 
 def impedance(netlist: ColdNetlist, red: str, black: str, hz: float) -> complex:
@@ -75,4 +80,7 @@ def capacitance_reading(netlist: ColdNetlist, red: str, black: str) -> float:
     z = impedance(netlist, red, black, CAPACITANCE_METER_HZ)
     if math.isinf(z.real) or z == 0:
         return 0.0
-    return max((1.0 / z).imag / (2.0 * math.pi * CAPACITANCE_METER_HZ), 0.0)
+    if z.imag >= 0.0 or z.real > -z.imag:
+        return 0.0
+    farad = -1.0 / (2.0 * math.pi * CAPACITANCE_METER_HZ * z.imag)
+    return farad if farad >= CAPACITANCE_RESOLUTION_F else 0.0

@@ -17,7 +17,7 @@ class BoardPart:
     part's value may be, as factors on ``value`` (0.95, 1.05 for a 5 % resistor; wide where the
     value is the family's guess rather than the board's marking). ``extra`` carries kind-specific
     figures as (name, value) pairs: a capacitor's ``esr_ohm``, a fuse's or conductor's ``ohm``, a
-    transformer's ``aux_ohm``, ``secondary_ohm``, ``feedback_ohm`` and ``<winding>_henry``, and
+    transformer's ``aux_ohm``, ``secondary_ohm`` and ``<winding>_henry``, and
     ``drop_shift_v``, how far a part's junctions sit from their type's typical drop."""
 
     id: str

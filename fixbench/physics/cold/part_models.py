@@ -11,26 +11,14 @@ from __future__ import annotations
 from dataclasses import replace
 from functools import lru_cache
 
+from fixbench.knowledge.model import KIND_PINS, KIND_REQUIRED_PINS
 from fixbench.physics.cold import junctions as jn
 from fixbench.physics.cold.board_part import BoardPart
 from fixbench.physics.cold.elements import Capacitor, Element, Junction, Resistor, Winding
 
-# Pins of each kind, in the order a netlist names them.
-PINS: dict[str, tuple[str, ...]] = {
-    "fuse": ("a", "b"), "thermistor": ("a", "b"), "resistor": ("a", "b"), "lead": ("a", "b"),
-    "electrolytic": ("plus", "minus"), "film_capacitor": ("a", "b"),
-    "rectifier_diode": ("anode", "cathode"), "fast_diode": ("anode", "cathode"),
-    "schottky": ("anode", "cathode"), "zener": ("anode", "cathode"),
-    "bridge": ("ac1", "ac2", "plus", "minus"),
-    "mosfet": ("drain", "gate", "source"), "bjt": ("base", "collector", "emitter"),
-    "controller": ("vcc", "gnd"),
-    "optocoupler": ("anode", "cathode", "collector", "emitter"),
-    "tl431": ("cathode", "anode", "ref"),
-    "transformer": ("primary_a", "primary_b", "aux_a", "aux_b", "secondary_a", "secondary_b",
-                    "feedback_a", "feedback_b"),
-}
-# Pins a netlist must give; the others may be left out (a transformer without an aux winding).
-REQUIRED_PINS: dict[str, tuple[str, ...]] = {"transformer": ("primary_a", "primary_b")}
+# Pins of each kind, and those a netlist must place: the knowledge files' own table.
+PINS = KIND_PINS
+REQUIRED_PINS = KIND_REQUIRED_PINS
 
 SHORT_OHM = 0.3  # a shorted junction, capacitor or fuse-class part reads a fraction of an ohm [practice]
 SHORTED_CONTROLLER_OHM = 8.0  # a controller's supply input shorted inside: a few ohms [practice]
@@ -44,10 +32,9 @@ LEAD_OHM = 0.2  # a charger cable's conductor [practice]
 CONTROLLER_VCC_OHM = 150e3
 AUX_WINDING_OHM = 1.0  # auxiliary winding of a charger transformer [practice]
 SECONDARY_WINDING_OHM = 0.05  # secondary of a 5-20 V output [practice]
-FEEDBACK_WINDING_OHM = 0.5  # base-drive winding of a self-oscillating supply [practice]
 # Winding inductances, for the ESR meter's 100 kHz only: a charger primary of 0.5-3 mH; the other
 # windings scale down by the square of their turns ratio, tens of microhenry [practice].
-WINDING_HENRY = {"primary": 1.5e-3, "aux": 30e-6, "secondary": 15e-6, "feedback": 30e-6}
+WINDING_HENRY = {"primary": 1.5e-3, "aux": 30e-6, "secondary": 15e-6}
 
 # The failure modes each kind's cold model knows (besides "ok").
 MODES: dict[str, tuple[str, ...]] = {
@@ -178,8 +165,7 @@ def _transformer(part: BoardPart) -> tuple[Element, ...]:
         raise _mode_error(part)
     pins = dict(part.pins)
     ohms = {"primary": part.value, "aux": part.figure("aux_ohm", AUX_WINDING_OHM),
-            "secondary": part.figure("secondary_ohm", SECONDARY_WINDING_OHM),
-            "feedback": part.figure("feedback_ohm", FEEDBACK_WINDING_OHM)}
+            "secondary": part.figure("secondary_ohm", SECONDARY_WINDING_OHM)}
     elements: list[Element] = []
     for winding, ohm in ohms.items():
         if f"{winding}_a" not in pins or (winding == "primary" and part.mode == "open"):

@@ -1,9 +1,11 @@
 """A cold check as the technician makes it: the instrument, the probe pairs (red first), how the
 readings of several legs make the one number entered, and a leg lifted first.
 
-Several legs (the four diodes of a bridge) make one number: the leg that stands out from the
-others, or any of them when they agree, so a shorted leg (near 0) and an open one (OL) both show in
-the number entered [practice: a bridge is judged by the diode that reads unlike the rest].
+Several legs make one number. The four diodes of a bridge: the leg that stands out from the others,
+or any of them when they agree, so a shorted leg (near 0) and an open one (OL) both show in the
+number entered [practice: a bridge is judged by the diode that reads unlike the rest]. A
+transistor's junctions and collector-emitter: the lowest, so a short on any pair shows, and an open
+transistor (both junctions OL) reads OL [practice].
 """
 
 from __future__ import annotations
@@ -11,6 +13,7 @@ from __future__ import annotations
 import math
 import statistics
 from dataclasses import dataclass
+from functools import lru_cache
 
 import networkx as nx
 
@@ -23,7 +26,7 @@ from fixbench.physics.cold.readings import diode_test, ohms
 from fixbench.physics.cold.part_models import cold_elements, joined_in_any_mode
 
 INSTRUMENTS = ("ohmmeter", "diode_test", "capacitance", "esr")
-COMBINES = ("one", "odd_one_out")
+COMBINES = ("one", "odd_one_out", "lowest")
 LIFTED = "lifted"  # a probe node written this way goes on the lifted leg
 
 
@@ -88,6 +91,8 @@ def reading(netlist: ColdNetlist, probing: Probing, meter: Meter = HANDHELD) -> 
     """The number the technician enters for this check on this board."""
     board = probing.board(netlist)
     values = tuple(leg_reading(board, probing.instrument, red, black, meter) for red, black in probing.legs())
+    if probing.combine == "lowest":
+        return min(values)
     return values[0] if probing.combine == "one" else odd_one_out(values)
 
 
@@ -120,11 +125,17 @@ _MEMO: dict[tuple, float] = {}
 _MEMO_LIMIT = 200_000
 
 
+@lru_cache(maxsize=16384)
 def _seen(part: BoardPart, instrument: str) -> tuple[Element, ...]:
     elements = cold_elements(part)
     if instrument in ("ohmmeter", "diode_test"):
         return tuple(e for e in elements if not isinstance(e, Capacitor))
     return elements
+
+
+def solved_readings() -> int:
+    """How many distinct readings are remembered (each was solved once)."""
+    return len(_MEMO)
 
 
 def reading_in_reach(netlist: ColdNetlist, probing: Probing, reach: frozenset[str],

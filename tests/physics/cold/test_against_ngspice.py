@@ -90,3 +90,29 @@ def test_range_below_the_chosen_one_is_over_range_in_ngspice(setup, ngspice_poin
         return
     source, volts = ngspice_points[(setup.name, "below")]
     assert math.isinf(display(setup, source, volts))  # [src: ngspice .op on the next lower range: over full scale]
+
+
+def _family_legs():
+    from fixbench.knowledge import load_knowledge
+    from fixbench.physics.cold.family_board import family_board, probing_of
+    from fixbench.physics.ratings import parse_ratings
+
+    ratings = parse_ratings({"mains": "230 V", "output": "5 V", "current": "2 A"})
+    legs = []
+    for family in load_knowledge().families.values():
+        board = family_board(family, ratings)
+        for check in family.checks:
+            if not check.probes or check.instrument not in ("ohmmeter", "diode_test"):
+                continue
+            probing = probing_of(check)
+            for k, (red, black) in enumerate(probing.legs()):
+                legs.append(pytest.param(probing.board(board), red, black, check.instrument,
+                                         id=f"{family.id}-{check.id}-{k}"))
+    return legs
+
+
+@pytest.mark.parametrize("board, red, black, instrument", _family_legs())
+def test_every_family_cold_check_matches_ngspice(board, red, black, instrument, ngspice, tmp_path):
+    reading = diode_test(board, red, black) if instrument == "diode_test" else ohms(board, red, black)
+    (volts,) = run_op([Probe(board, red, black, reading.source)], tmp_path)
+    assert reading.point.volts == pytest.approx(volts, rel=VOLT_REL, abs=VOLT_ABS)  # [src: ngspice .op on the family's whole board]
