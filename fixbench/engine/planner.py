@@ -11,8 +11,9 @@ discharged.
 
 A conclusion must not hang on one reading: before stopping, the posterior is recomputed with each
 reading left out in turn; if the leading fault then falls below FRAGILE_BELOW, the search goes on
-(a reading may be a misread or a bad probe contact), and the check that was left out may be taken
-again.
+(a reading may be a misread or a bad probe contact): with another check that tells the leader from
+the rest if there is one (a lifted leg, another instrument), otherwise with the check that was left
+out taken again.
 
 The rule is greedy information gain per cost, the test-selection rule of GDE [src: de Kleer &
 Williams, Diagnosing multiple faults, Artificial Intelligence 32, 1987: choose the measurement that
@@ -113,11 +114,16 @@ def scored_candidates(model: FaultModel, posterior: np.ndarray, state: PlanState
 
 
 def _confirmations(model: FaultModel, posterior: np.ndarray, state: PlanState) -> list[tuple[float, float, int]]:
-    """Checks that would confirm a leader resting on one reading: one that separates it from the
-    rest, or the doubtful reading taken again."""
+    """Checks that would confirm a leader resting on one reading: another check that separates it
+    from the rest (a lifted leg, another instrument), or, when there is none, the doubtful reading
+    taken again. A reading taken again guards against a misread, not against what the meter cannot
+    tell in circuit, so an independent check comes first."""
     fragile = fragile_readings(model, posterior, state.evidence)
     if not fragile:
         return []
+    independent = [c for c in scored_candidates(model, posterior, state) if c[1] >= MIN_INFORMATION]
+    if independent:
+        return independent
     again = frozenset(fragile) - state.skipped
     repeats = sum(1 for i, _ in state.evidence if i in again)
     if repeats >= 2 * len(again):

@@ -139,7 +139,7 @@ def test_shop_history_is_part_of_the_session(family, ratings):
 
 
 
-def test_a_conclusion_resting_on_one_reading_asks_for_it_again_and_says_why():
+def test_a_conclusion_resting_on_one_reading_is_confirmed_by_another_check_and_says_why():
     from fixbench.engine import start_diagnosis
     from fixbench.knowledge import load_knowledge
     from fixbench.physics.ratings import parse_ratings
@@ -151,8 +151,15 @@ def test_a_conclusion_resting_on_one_reading_asks_for_it_again_and_says_why():
                          ("output_cap_capacitance", "680 uF")):
         state = state.with_reading(check, value)
     assert state.suspects[0].fault == "C2.dried" and state.suspects[0].probability > 0.95
-    # Only the one capacitance reading separates C2 from the other hiccup faults: confirm it.
-    assert state.next_check.check.id == "vcc_cap_capacitance"
-    assert state.next_check.reason.startswith("take it again")
-    confirmed = state.with_reading("vcc_cap_capacitance", "5.4 uF")
+    # Only the one capacitance reading separates C2 from the other hiccup faults: confirm it with
+    # another instrument, which a misread of the first cannot fool (issue 10: confirm with an
+    # independent check rather than the same reading again).
+    assert state.next_check.check.id == "vcc_cap_esr"
+    assert state.next_check.reason.startswith("confirms the leading fault")
+    confirmed = state.with_reading("vcc_cap_esr", "30 ohm")
     assert confirmed.next_check is None and confirmed.conclusion.faults == ("C2.dried",)
+    # With no other check to hand, the one reading is taken again.
+    again = state.skip("vcc_cap_esr")
+    assert again.next_check.check.id == "vcc_cap_capacitance"
+    assert again.next_check.reason.startswith("take it again")
+    assert again.with_reading("vcc_cap_capacitance", "5.4 uF").conclusion.faults == ("C2.dried",)
