@@ -21,8 +21,7 @@ class Setup:
 
 
 def _zener_alone(volts: float) -> ColdNetlist:
-    return ColdNetlist((BoardPart("ZD1", "zener", (("anode", "a"), ("cathode", "k")), volts),
-                        BoardPart("R9", "resistor", (("a", "k"), ("b", "a")), 1e6)))
+    return ColdNetlist((BoardPart("ZD1", "zener", (("anode", "a"), ("cathode", "k")), volts),))
 
 
 PS = boards.primary_side()
@@ -79,6 +78,7 @@ SETUPS = [
     Setup("so_collector_emitter_ohms", SO, "emitter", "collector", "ohmmeter",
           "NPN collector-emitter through the junctions and the base resistor"),
     Setup("so_base_resistor", SO, "bulk", "base", "ohmmeter", "base bias resistor in circuit"),
-    Setup("zener_breakdown_on_ohms", _zener_alone(2.4), "k", "a", "ohmmeter",
-          "a 2.4 V Zener breaks down under the 3 V ohms source"),
+    Setup("zener_breakdown_diode_test", _zener_alone(2.4), "k", "a", "diode_test",
+          "a 2.4 V Zener reversed breaks down under the diode test's 3 V (2.3 V across it, over the display)"),
+    Setup("zener_forward_diode_test", _zener_alone(2.4), "a", "k", "diode_test", "the same Zener forward"),
 ]
