@@ -158,6 +158,11 @@ class DiagnosisState:
                         check.minutes, bits, hazard_class(self.family, check, self.model.ratings.output_v),
                         cautions_for(self.family, check), reason)
 
+    def discharge_needed_before(self, check_id: str) -> bool:
+        """Whether the bulk capacitor's discharge must be confirmed before this check (the
+        planner's rule, so the bench and practice judge a hand on the primary alike)."""
+        return planner.discharge_first(self.model, self._plan_state(), self.family.check(check_id))
+
     @property
     def live_allowed(self) -> bool:
         """Whether plain mains may be applied now (no plausible short, lamp test not bright)."""

@@ -27,6 +27,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from fixbench.engine.fault_model import FaultModel
+from fixbench.knowledge.model import Check
 from fixbench.engine.inference import information_about_root, root_posterior
 from fixbench.engine.inference import posterior as posterior_of
 
@@ -141,8 +142,13 @@ def choose(model: FaultModel, posterior: np.ndarray, state: PlanState) -> int | 
     if not candidates:
         return None
     best = candidates[0][2]
-    check = model.checks[best].check
-    if (state.powered_since_discharge and check.power == "cold"
-            and model.family.touches_primary(check) and model.family.has_check(DISCHARGE_CHECK)):
+    if discharge_first(model, state, model.checks[best].check):
         return model.check_index(DISCHARGE_CHECK)
     return best
+
+
+def discharge_first(model: FaultModel, state: PlanState, check: Check) -> bool:
+    """Whether a hand on ``check`` now must wait for the bulk capacitor's discharge to be confirmed.
+    The one statement of the rule: the planner follows it, and practice judges a trainee by it."""
+    return (state.powered_since_discharge and check.power == "cold" and check.id != DISCHARGE_CHECK
+            and model.family.touches_primary(check) and model.family.has_check(DISCHARGE_CHECK))
