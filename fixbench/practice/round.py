@@ -1,23 +1,28 @@
-"""A practice round: the trainee takes checks on the hidden unit in any order, on a running clock of
-bench minutes, may ask the coach, and commits a diagnosis.
+"""A practice round: the trainee hears the customer's complaint, takes checks on the hidden unit in
+any order on a running clock of bench minutes, may ask the coach, and commits a diagnosis.
 
-The round keeps its own diagnosis state from the trainee's readings (the same engine the bench
-uses), so it can tell what each reading was worth, whether a power-up was safe at that moment, and
-what the coach would show. The trainee never sees the state unless they ask the coach.
+The round keeps its own diagnosis state from the complaint and the trainee's readings (the same
+engine the bench uses), so it can tell what each reading was worth, whether reaching for a check
+was safe at that moment, and what the coach would show. The trainee never sees the state unless
+they ask the coach.
+
+A slip stops the round when it happens (see :mod:`fixbench.practice.safety`): the check the
+colleague stopped is not taken, and the round waits until the trainee has read why. Every action
+is kept in order (:attr:`PracticeRound.actions`), so a kept round can be played again exactly.
 """
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 
-from fixbench.engine.inference import entropy_bits, information_about_root, root_posterior
 from fixbench.engine.diagnosis import DiagnosisState, Suspect, start_diagnosis
 from fixbench.knowledge.model import Check, Family
-from fixbench.practice.safety import Slip, slip_before
+from fixbench.practice.safety import Slip, mistake_key, slip_before
 from fixbench.practice.scenario import Scenario
-from fixbench.practice.unit import HiddenUnit
+from fixbench.practice.unit import Answer, HiddenUnit
 
 COACH_SHOWN = 5  # suspects the coach lists
+TAKE, COACH = "take", "coach"  # the kinds of action a round keeps
 
 
 class RoundError(ValueError):
@@ -33,12 +38,19 @@ class Step:
     reading: str
     minutes: float
     clock: float  # bench minutes on the clock after this check
-    bits_possible: float  # what the check could tell, given the readings before it
-    bits_told: float  # how much this reading narrowed the root fault (entropy drop, may be negative)
     procedure: bool  # a safety step that tells nothing by design
-    slip: Slip | None
+    slip: Slip | None  # a slip that happened with this reading (plain mains on a short)
     fault_away: bool = False
     misleading: bool = False
+    fuse_blew: bool = False  # the fuse opened as this reading was taken
+
+
+@dataclass(frozen=True)
+class Stop:
+    """A check the trainee reached for and a colleague stopped: not taken, no minutes."""
+
+    slip: Slip
+    counted: bool  # the first time for this mistake (a repeat is shouted again, not counted again)
 
 
 @dataclass(frozen=True)
@@ -53,8 +65,12 @@ class Commitment:
     parts: frozenset[str]
 
 
-def _root_entropy(state: DiagnosisState) -> float:
-    return entropy_bits(root_posterior(state.model, state.posterior))
+def opening_state(family: Family, scenario: Scenario, unit: HiddenUnit) -> DiagnosisState:
+    """The diagnosis as the unit comes in: the customer's complaint already read."""
+    state = start_diagnosis(family, scenario.parsed_ratings())
+    for check_id, answer in unit.complaint:
+        state = state.with_reading(check_id, answer.text)
+    return state
 
 
 class PracticeRound:
@@ -62,10 +78,23 @@ class PracticeRound:
         self.family = family
         self.scenario = scenario
         self.unit = HiddenUnit(family, scenario)
-        self.state: DiagnosisState = start_diagnosis(family, scenario.parsed_ratings())
+        self.opening: DiagnosisState = opening_state(family, scenario, self.unit)
+        self.states: list[DiagnosisState] = [self.opening]  # before the first step, then after each
         self.steps: list[Step] = []
+        self.stops: list[Stop] = []
         self.coach_looks: list[CoachLook] = []
+        self.actions: list[tuple[str, str]] = []
         self.commitment: Commitment | None = None
+        self._mistakes: set[tuple[str, int]] = set()
+        self._slips: list[Slip] = []
+
+    @property
+    def state(self) -> DiagnosisState:
+        return self.states[-1]
+
+    @property
+    def complaint(self) -> tuple[tuple[str, Answer], ...]:
+        return self.unit.complaint
 
     @property
     def clock(self) -> float:
@@ -73,7 +102,8 @@ class PracticeRound:
 
     @property
     def slips(self) -> tuple[Slip, ...]:
-        return tuple(s.slip for s in self.steps if s.slip is not None)
+        """Each mistake once, in the order made."""
+        return tuple(self._slips)
 
     @property
     def committed(self) -> bool:
@@ -89,24 +119,37 @@ class PracticeRound:
                 found.append(check)
         return tuple(found)
 
-    def take(self, check_id: str) -> Step:
+    def take(self, check_id: str) -> Step | Stop:
+        """Take a check; a :class:`Stop` when a colleague would have stopped it (not taken)."""
         if self.committed:
             raise RoundError("the diagnosis is committed: start a new round to take more checks")
         check = self.family.check(check_id)
         before = self.state
-        index = before.model.check_index(check_id)
-        possible = information_about_root(before.model, before.posterior, index)
+        self.actions.append((TAKE, check_id))
         slip = slip_before(before, check, self.unit.fuse_would_blow, len(self.steps) + 1)
+        counted = False
+        if slip is not None:
+            key = mistake_key(before, slip)
+            counted = key not in self._mistakes
+            self._mistakes.add(key)
+            if counted:
+                self._slips.append(slip)
+        if slip is not None and slip.stopped:
+            stop = Stop(slip, counted)
+            self.stops.append(stop)
+            return stop
+        was_blown = self.unit.fuse_blown_on_bench
         answer = self.unit.measure(check_id)
-        self.state = before.with_reading(check_id, answer.text)
+        self.states.append(before.with_reading(check_id, answer.text))
         step = Step(len(self.steps) + 1, check_id, check.title, check.power, answer.text, check.minutes,
-                    self.clock + check.minutes, possible, _root_entropy(before) - _root_entropy(self.state),
-                    check.procedure, slip, answer.fault_away, answer.misleading)
+                    self.clock + check.minutes, check.procedure, slip if counted else None,
+                    answer.fault_away, answer.misleading, self.unit.fuse_blown_on_bench and not was_blown)
         self.steps.append(step)
         return step
 
     def coach(self) -> CoachLook:
-        """The ranked suspects after the readings so far; asking is recorded."""
+        """The ranked suspects after the readings so far; asking is recorded (and costs points)."""
+        self.actions.append((COACH, ""))
         look = CoachLook(len(self.steps), self.state.suspects[:COACH_SHOWN])
         self.coach_looks.append(look)
         return look

@@ -2,7 +2,8 @@
 
 A scenario is drawn from the knowledge base's fault weights for a family and level, or replayed
 from a closed case of the shop. A replayed case keeps only what the diagnosis needs (family,
-ratings, confirmed fault, the month it closed): no customer, ticket, device or technician.
+ratings, confirmed fault, the month it closed, and what the customer said when it came in): no
+customer, ticket, device or technician.
 """
 
 from __future__ import annotations
@@ -10,11 +11,13 @@ from __future__ import annotations
 import random
 from dataclasses import dataclass
 
+from fixbench.engine.diagnosis import start_diagnosis
 from fixbench.engine.hypotheses import NO_FAULT, root_weights
 from fixbench.engine.simulate import draw_modes
 from fixbench.knowledge.model import Family
 from fixbench.physics.ratings import Ratings, parse_ratings
 from fixbench.practice.levels import Level
+from fixbench.quantities import ReadingError
 
 # Invented units to practise on, by family: label ratings as a shop would read them.
 PRACTICE_UNITS: dict[str, tuple[dict[str, str], ...]] = {
@@ -38,8 +41,9 @@ class Scenario:
     level_id: str
     seed: int
     intermittent: bool  # the fault comes and goes while readings are taken
-    source: str = "drawn"  # "drawn" or "replay"
+    source: str = "drawn"  # "drawn", "chosen" (by the curriculum) or "replay"
     closed: str = ""  # for a replay: the month the case closed, e.g. "2024-03"
+    told: tuple[tuple[str, str], ...] = ()  # for a replay: the customer's answers as the shop kept them
 
     @property
     def id(self) -> str:
@@ -70,6 +74,7 @@ class PastCase:
     ratings: dict[str, str]
     confirmed_fault: str
     closed: str  # "YYYY-MM"
+    told: tuple[tuple[str, str], ...] = ()  # (question check id, the customer's answer)
 
 
 def intermittent_fault(family: Family, fault_id: str) -> bool:
@@ -108,17 +113,49 @@ def draw_scenario(family: Family, level: Level, seed: int) -> Scenario:
     return _scenario(family, ratings, fault_id, level, rng, seed)
 
 
+def scenario_with_fault(family: Family, level: Level, fault_id: str, seed: int) -> Scenario:
+    """A unit of this family hiding the given fault (the curriculum's choice), its damage drawn
+    as the level draws it."""
+    if fault_id != NO_FAULT:
+        family.fault(fault_id)  # an unknown fault fails loudly here
+    rng = random.Random(seed)
+    ratings = rng.choice(PRACTICE_UNITS.get(family.id, (FALLBACK_UNIT,)))
+    return _scenario(family, ratings, fault_id, level, rng, seed, "chosen")
+
+
+def practice_ratings(family: Family) -> Ratings:
+    """The first practice unit of the family, for questions about the family as a whole."""
+    return parse_ratings(PRACTICE_UNITS.get(family.id, (FALLBACK_UNIT,))[0])
+
+
 def replay_scenario(family: Family, case: PastCase, level: Level, seed: int) -> Scenario:
     """A closed case of the shop as a round: its unit and confirmed fault, collateral drawn anew."""
     if case.confirmed_fault != NO_FAULT and case.confirmed_fault not in {f.id for f in family.faults}:
         raise ValueError(f"case fault '{case.confirmed_fault}' is not a fault of family '{family.id}'")
     rng = random.Random(seed)
-    return _scenario(family, case.ratings, case.confirmed_fault, level, rng, seed, "replay", case.closed)
+    return _scenario(family, case.ratings, case.confirmed_fault, level, rng, seed, "replay", case.closed,
+                     _answers_read(family, case))
+
+
+def _answers_read(family: Family, case: PastCase) -> tuple[tuple[str, str], ...]:
+    """The customer's answers kept with the case, as the outcomes they read as (any that no longer
+    reads, under a changed knowledge file, is left for the unit to answer)."""
+    state = start_diagnosis(family, parse_ratings(case.ratings))
+    kept = []
+    for check_id, typed in case.told:
+        if not family.has_check(check_id):
+            continue
+        try:
+            kept.append((check_id, state.with_reading(check_id, typed).readings[-1].outcome))
+        except ReadingError:
+            continue
+    return tuple(kept)
 
 
 def _scenario(family: Family, ratings: dict[str, str], fault_id: str, level: Level, rng: random.Random,
-              seed: int, source: str = "drawn", closed: str = "") -> Scenario:
+              seed: int, source: str = "drawn", closed: str = "",
+              told: tuple[tuple[str, str], ...] = ()) -> Scenario:
     modes = _modes(family, fault_id, level, rng)
     intermittent = level.intermittent_away > 0 and intermittent_fault(family, fault_id)
     return Scenario(family.id, tuple(sorted(ratings.items())), fault_id, modes, level.id, seed,
-                    intermittent, source, closed)
+                    intermittent, source, closed, told)

@@ -197,6 +197,13 @@ class PracticeAttempt(Base):
     coach_used: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
     # The trainee blew the fuse on plain mains: that slip caps the round's band lowest.
     fuse_blown: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
+    # What the round taught (null for rounds kept before revision 0006): the verdict right, the
+    # kinds of safety mistake (comma-separated, each once), checks that told nothing, and the
+    # round's record (scenario, actions, diagnosis, readings) for opening its debrief again.
+    fault_right: Mapped[bool | None] = mapped_column(Boolean, nullable=True)
+    slip_kinds: Mapped[str | None] = mapped_column(Text, nullable=True)
+    checks_wasted: Mapped[int | None] = mapped_column(Integer, nullable=True)
+    record: Mapped[dict | None] = mapped_column(JSON(none_as_null=True), nullable=True)
 
 
 class Amendment(Base):

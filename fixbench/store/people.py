@@ -52,10 +52,13 @@ def add_device(store: Store, *, make: str, model: str, kind: str,
 def add_practice_attempt(store: Store, *, trainee_id: int, scenario: str, checks_used: int,
                          minutes: float, score: float, safety_slips: int,
                          attempted_at: datetime | None = None, coach_used: bool = False,
-                         fuse_blown: bool = False) -> int:
+                         fuse_blown: bool = False, fault_right: bool | None = None,
+                         slip_kinds: str | None = None, checks_wasted: int | None = None,
+                         record: Mapping | None = None) -> int:
     """Keep one practice round a trainee played: scenario id, effort, score, safety slips, whether
-    the coach was asked and whether the trainee blew the fuse."""
-    if checks_used < 0 or minutes < 0 or safety_slips < 0:
+    the coach was asked and whether the trainee blew the fuse; and what it taught (the verdict
+    right, the kinds of slip, checks wasted) with the round's record for opening it again."""
+    if checks_used < 0 or minutes < 0 or safety_slips < 0 or (checks_wasted or 0) < 0:
         raise StoreInputError("checks, minutes and safety slips cannot be negative")
     with store.session() as session:
         trainee = session.get(Technician, trainee_id)
@@ -64,7 +67,10 @@ def add_practice_attempt(store: Store, *, trainee_id: int, scenario: str, checks
         attempt = PracticeAttempt(trainee_id=trainee_id, scenario=checked_text(scenario, "scenario"),
                                   checks_used=checks_used, minutes=minutes, score=score,
                                   safety_slips=safety_slips, attempted_at=attempted_at or utc_now(),
-                                  coach_used=bool(coach_used), fuse_blown=bool(fuse_blown))
+                                  coach_used=bool(coach_used), fuse_blown=bool(fuse_blown),
+                                  fault_right=fault_right, slip_kinds=slip_kinds,
+                                  checks_wasted=checks_wasted,
+                                  record=dict(record) if record is not None else None)
         session.add(attempt)
         session.flush()
         return attempt.id

@@ -3,11 +3,11 @@ practice par walks the engine's own proposals on a unit and stops where the engi
 
 from __future__ import annotations
 
-from fixbench.engine import start_diagnosis
 from fixbench.engine.follow import follow_planner
 from fixbench.engine.simulate import simulated_unit
 from fixbench.practice.engine_path import engine_path
 from fixbench.practice.levels import NORMAL
+from fixbench.practice.round import opening_state
 from fixbench.practice.scenario import draw_scenario
 from fixbench.practice.unit import HiddenUnit
 
@@ -42,11 +42,12 @@ def test_nothing_is_measured_once_the_engine_has_concluded(family, ratings, star
 
 
 def test_the_practice_par_is_the_same_walk_on_the_hidden_unit(family):
+    # The par walks from the customer's complaint, then adds the careful checks before power-up.
     scenario = draw_scenario(family, NORMAL, 7)
     par = engine_path(family, scenario)
     unit = HiddenUnit(family, scenario)
-    walk = follow_planner(start_diagnosis(family, scenario.parsed_ratings()),
-                          lambda check_id: unit.measure(check_id).text, 80)
-    assert [s.check_id for s in par.steps] == [s.proposal.check.id for s in walk.steps]
-    assert [s.reading for s in par.steps] == [s.typed for s in walk.steps]
-    assert par.fault_id == walk.final.suspects[0].fault
+    walk = follow_planner(opening_state(family, scenario, unit), lambda check_id: unit.measure(check_id).text, 80)
+    planned = [s for s in par.steps if not s.careful]
+    assert [s.check_id for s in planned] == [s.proposal.check.id for s in walk.steps]
+    assert [s.reading for s in planned] == [s.typed for s in walk.steps]
+    assert all(s.careful for s in par.steps[len(planned):])

@@ -1,10 +1,11 @@
-"""A practice round: readings of the hidden unit, the clock, safety slips and the coach."""
+"""A practice round: the complaint, readings of the hidden unit, the clock, safety slips that stop
+the round (each mistake counted once) and the coach."""
 
 from __future__ import annotations
 
 import pytest
 
-from fixbench.practice.round import PracticeRound, RoundError
+from fixbench.practice.round import PracticeRound, RoundError, Step, Stop
 from fixbench.practice.safety import MAINS_ON_SHORT, MAINS_UNPROVEN, UNDISCHARGED
 from fixbench.practice.scenario import Scenario
 
@@ -20,9 +21,17 @@ def dried_output_cap():
     return Scenario("pwm_flyback", RATINGS, "C3.dried", (("C3", "dried"),), "easy", 4, False)
 
 
+def test_the_round_opens_with_the_customers_complaint_already_heard(flyback):
+    practice = PracticeRound(flyback, shorted_switch())
+    asked = [c for c, _ in practice.complaint]
+    assert asked == [c.id for c in flyback.checks if c.instrument == "question"]
+    assert [r.check for r in practice.opening.readings] == asked
+    again = practice.take("symptom_dead")  # the customer tells the same story again, at no cost
+    assert again.reading == dict(practice.complaint)["symptom_dead"].text and again.minutes == 0
+
+
 def test_each_check_adds_its_minutes_to_the_clock(flyback):
     practice = PracticeRound(flyback, dried_output_cap())
-    practice.take("symptom_dead")
     practice.take("fuse_resistance")
     step = practice.take("series_lamp")
     expected = flyback.check("fuse_resistance").minutes + flyback.check("series_lamp").minutes
@@ -32,6 +41,7 @@ def test_each_check_adds_its_minutes_to_the_clock(flyback):
 def test_plain_mains_on_a_shorted_switch_blows_the_fuse_and_is_a_slip(flyback):
     practice = PracticeRound(flyback, shorted_switch())
     step = practice.take("bulk_voltage")
+    assert isinstance(step, Step) and step.fuse_blew
     assert step.slip is not None and step.slip.kind == MAINS_ON_SHORT
     assert "series lamp" in step.slip.why
     assert practice.unit.failed_parts["F1"] == "open"
@@ -47,12 +57,29 @@ def test_the_series_lamp_glows_bright_on_a_shorted_switch_without_a_slip(flyback
     assert "F1" not in practice.unit.failed_parts
 
 
-def test_touching_the_primary_after_the_lamp_without_discharge_is_a_slip(flyback):
+def test_a_hand_on_the_primary_after_the_lamp_is_stopped_before_it_is_taken(flyback):
     practice = PracticeRound(flyback, shorted_switch())
     practice.take("series_lamp")
-    step = practice.take("mosfet_drain_source")
-    assert step.slip is not None and step.slip.kind == UNDISCHARGED
-    assert "bulk capacitor" in step.slip.why.lower()
+    stop = practice.take("mosfet_drain_source")
+    assert isinstance(stop, Stop) and stop.counted
+    assert stop.slip.kind == UNDISCHARGED and "bulk capacitor" in stop.slip.why.lower()
+    assert stop.slip.shout.startswith("Stop!")
+    assert [s.check_id for s in practice.steps] == ["series_lamp"]  # not taken, no minutes
+    assert practice.clock == flyback.check("series_lamp").minutes
+
+
+def test_a_missed_discharge_counts_once_however_often_the_hand_goes_back(flyback):
+    # Reproduces the issue: one missed discharge with three touches cost 30 points.
+    practice = PracticeRound(flyback, shorted_switch())
+    practice.take("series_lamp")
+    stops = [practice.take(c) for c in ("mosfet_drain_source", "sense_resistor", "gate_resistor")]
+    assert [s.counted for s in stops] == [True, False, False]
+    assert [s.kind for s in practice.slips] == [UNDISCHARGED]
+    practice.take("bulk_discharged")
+    assert isinstance(practice.take("mosfet_drain_source"), Step)
+    practice.take("series_lamp")  # a second power-up, and the same slip again: a second mistake
+    assert isinstance(practice.take("gate_resistor"), Stop)
+    assert [s.kind for s in practice.slips] == [UNDISCHARGED, UNDISCHARGED]
 
 
 def test_confirming_the_discharge_first_is_no_slip(flyback):
@@ -60,20 +87,14 @@ def test_confirming_the_discharge_first_is_no_slip(flyback):
     practice.take("series_lamp")
     practice.take("bulk_discharged")
     assert practice.take("mosfet_drain_source").slip is None
-    assert practice.slips == ()
+    assert practice.slips == () and practice.stops == []
 
 
-def test_plain_mains_before_ruling_out_a_short_is_a_slip_even_when_nothing_blows(flyback):
+def test_plain_mains_before_the_lamp_is_stopped_even_when_nothing_would_blow(flyback):
     practice = PracticeRound(flyback, dried_output_cap())
-    step = practice.take("output_plug")
-    assert step.slip is not None and step.slip.kind == MAINS_UNPROVEN
-
-
-def test_a_telling_reading_narrows_the_fault(flyback):
-    practice = PracticeRound(flyback, shorted_switch())
-    step = practice.take("mosfet_drain_source")
-    assert step.bits_possible > 0.1
-    assert step.bits_told > 0.1
+    stop = practice.take("output_plug")
+    assert isinstance(stop, Stop) and stop.slip.kind == MAINS_UNPROVEN
+    assert practice.steps == []
 
 
 def test_the_coach_is_recorded_with_the_readings_taken_so_far(flyback):
@@ -83,6 +104,7 @@ def test_the_coach_is_recorded_with_the_readings_taken_so_far(flyback):
     assert look.after_step == 1
     assert look.suspects[0].probability >= look.suspects[-1].probability
     assert len(practice.coach_looks) == 1
+    assert practice.actions == [("take", "series_lamp"), ("coach", "")]
 
 
 def test_catalogue_search_finds_checks_by_words(flyback):

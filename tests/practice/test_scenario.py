@@ -6,7 +6,8 @@ import pytest
 
 from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.practice.levels import EASY, HARD, NORMAL
-from fixbench.practice.scenario import PastCase, draw_scenario, intermittent_fault, replay_scenario
+from fixbench.practice.scenario import (PastCase, draw_scenario, intermittent_fault, replay_scenario,
+                                       scenario_with_fault)
 
 
 def test_the_same_seed_draws_the_same_unit(flyback):
@@ -42,3 +43,20 @@ def test_a_case_whose_fault_the_family_lacks_is_refused(flyback):
     case = PastCase("pwm_flyback", {"mains": "230 V", "output": "5 V", "current": "1 A"}, "ZD1.short", "2024-03")
     with pytest.raises(ValueError, match="ZD1.short"):
         replay_scenario(flyback, case, NORMAL, 1)
+
+
+def test_a_replayed_case_keeps_what_its_customer_said_as_outcomes(flyback):
+    case = PastCase("pwm_flyback", {"mains": "230 V", "output": "12 V", "current": "2 A"}, "Q1.short", "2024-05",
+                    (("symptom_dead", "y"), ("symptom_hot", "no"), ("symptom_whatever", "yes"), ("look_fuse", "maybe")))
+    scenario = replay_scenario(flyback, case, NORMAL, 3)
+    # typed words read as the outcomes; a check the family lacks, or an answer that does not read,
+    # is left for the simulated customer
+    assert scenario.told == (("symptom_dead", "yes"), ("symptom_hot", "no"))
+
+
+def test_the_curriculum_can_hide_a_chosen_fault_drawing_its_damage_as_the_level_does(flyback):
+    scenario = scenario_with_fault(flyback, EASY, "R1.open", 4)
+    assert scenario.fault_id == "R1.open" and scenario.source == "chosen" and scenario.modes[0] == ("R1", "open")
+    assert scenario == scenario_with_fault(flyback, EASY, "R1.open", 4)
+    with pytest.raises(KeyError):
+        scenario_with_fault(flyback, EASY, "ZD1.short", 4)

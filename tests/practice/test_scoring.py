@@ -1,9 +1,11 @@
-"""Scoring: the fault, the parts, the minutes against par, and slips capping the band."""
+"""Scoring: the fault, the parts, the minutes against par, slips (once per mistake) and the coach,
+each taking points and capping the band."""
 
 from __future__ import annotations
 
 from fixbench.practice.safety import MAINS_ON_SHORT, UNDISCHARGED, Slip
-from fixbench.practice.scoring import NEARLY, PRACTISE, READY, effort_share, score_round
+from fixbench.practice.scoring import (COACH_FIRST_POINTS, COACH_MAX_POINTS, NEARLY, PRACTISE, READY,
+                                       coach_cost, effort_share, score_round)
 
 GROUP = ("Q1.short",)
 FAILED = {"Q1": "short", "F1": "open"}
@@ -49,7 +51,7 @@ def test_minutes_over_par_with_slack_cost_points():
     assert score(minutes=40.0).effort_points < score(minutes=20.0).effort_points < 30.0
 
 
-def test_any_slip_keeps_a_round_out_of_the_top_band():
+def test_each_mistake_costs_ten_points_and_keeps_a_round_out_of_the_top_band():
     result = score(slips=(slip(UNDISCHARGED),))
     assert result.total == 90.0
     assert result.band == NEARLY and result.capped_by_slip
@@ -58,3 +60,12 @@ def test_any_slip_keeps_a_round_out_of_the_top_band():
 def test_blowing_the_fuse_on_plain_mains_puts_the_round_in_the_bottom_band():
     result = score(slips=(slip(MAINS_ON_SHORT),))
     assert result.band == PRACTISE and result.capped_by_slip
+
+
+def test_the_coach_costs_points_and_the_top_band():
+    # Reproduces the issue: with the coach asked, score and band were those of a round alone.
+    alone, coached = score(), score(coach_looks=1)
+    assert coached.coach_points == COACH_FIRST_POINTS and coached.total == alone.total - COACH_FIRST_POINTS
+    assert alone.band == READY and coached.band == NEARLY and coached.capped_by_coach
+    assert score(coach_looks=3).total < coached.total  # each further look costs a little
+    assert coach_cost(100) == COACH_MAX_POINTS and coach_cost(0) == 0.0

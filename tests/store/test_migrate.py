@@ -206,3 +206,27 @@ def test_revision_0004_marks_and_bench_values_move_into_their_columns(store_url)
         7: ("", None, None),
     }
     store.close()
+
+
+def test_revision_0005_attempts_keep_their_rows_and_know_nothing_of_what_they_taught(store_url):
+    store = open_store(store_url, migrate=False)
+    upgrade(store, "0005")
+    with store.engine.begin() as connection:
+        _fill_v1(connection, cases=1)
+        connection.execute(_sql(
+            "INSERT INTO practice_attempts (id, trainee_id, scenario, checks_used, minutes, score, "
+            "safety_slips, attempted_at, coach_used, fuse_blown) VALUES "
+            "(200, 2, 'drawn:normal:pwm_flyback:Q1.short:s3', 6, 12.5, 80, 1, :at, true, false)"),
+            {"at": datetime(2024, 2, 1)})
+    before = _counts(store)
+
+    upgrade(store, "head")
+
+    assert _counts(store) == before
+    with store.engine.connect() as connection:
+        row = connection.execute(text(
+            "SELECT scenario, coach_used, fault_right, slip_kinds, checks_wasted, record "
+            "FROM practice_attempts WHERE id = 200")).one()
+    assert (row[0], bool(row[1])) == ("drawn:normal:pwm_flyback:Q1.short:s3", True)
+    assert tuple(row[2:]) == (None, None, None, None)
+    store.close()

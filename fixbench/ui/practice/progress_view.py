@@ -1,4 +1,6 @@
-"""Progress: the current trainee's rounds, and, for the owner, every trainee's summed up.
+"""Progress: the current trainee's rounds (each with its date and fault, and its debrief to open
+again), and, for the owner, every trainee summed up with the faults they miss and the slips they
+make.
 
 Both tables are fed by the store's queries (ordered and limited in SQL). The owner's table opens
 with the owner's passphrase, checked off the GUI thread (the check is slow by design).
@@ -6,13 +8,16 @@ with the owner's passphrase, checked off the GUI thread (the check is slow by de
 
 from __future__ import annotations
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
 from PySide6.QtWidgets import (QHBoxLayout, QHeaderView, QLabel, QLineEdit, QPushButton, QTableView,
                                QVBoxLayout, QWidget)
 
 from fixbench.practice.progress import AttemptRecord, Progress
-from fixbench.workflows.practice import TraineeSummary
 from fixbench.ui.bench.look import heading
+from fixbench.workflows.practice import TraineeOverview
+from fixbench.workflows.trade_names import TradeNames, family_name
+
+LEVEL_WORDS = {"easy": "Easy", "normal": "Normal", "hard": "Hard"}
 
 
 class _RowsModel(QAbstractTableModel):
@@ -48,23 +53,28 @@ class _RowsModel(QAbstractTableModel):
 
 
 class AttemptsModel(_RowsModel):
-    columns = ("Level", "Family", "Checks", "Minutes", "Score", "Band", "Slips", "Coach")
+    columns = ("Date", "Level", "Family", "Fault", "Verdict", "Minutes", "Score", "Band", "Slips", "Coach")
 
-    def __init__(self, family_titles: dict[str, str], parent=None) -> None:
+    def __init__(self, names: TradeNames, parent=None) -> None:
         super().__init__(parent)
-        self.family_titles = family_titles
+        self.names = names
 
     def cells(self, a: AttemptRecord) -> tuple[str, ...]:
-        return (a.level, self.family_titles.get(a.family, a.family), str(a.checks_used), f"{a.minutes:g}", f"{a.score:g}", a.band,
-                str(a.safety_slips), "yes" if a.coach_used else "")
+        verdict = "" if a.fault_right is None else "right" if a.fault_right else "wrong"
+        return (a.played_on, LEVEL_WORDS.get(a.level, a.level), family_name(a.family),
+                self.names.fault(a.fault, a.family), verdict, f"{a.minutes:g}", f"{a.score:g}", a.band,
+                str(a.safety_slips) if a.safety_slips else "", "yes" if a.coach_used else "")
 
 
 class TraineesModel(_RowsModel):
-    columns = ("Trainee", "Rounds", "Mean score", "Rounds with a slip", "Last round")
+    columns = ("Trainee", "Rounds", "Mean score", "Rounds with a slip", "Last round", "Faults missed",
+               "Slips by kind")
 
-    def cells(self, t: TraineeSummary) -> tuple[str, ...]:
-        return (t.name, str(t.rounds), "-" if t.mean_score is None else f"{t.mean_score:.0f}",
-                str(t.rounds_with_slips), t.last_attempt.strftime("%Y-%m-%d") if t.last_attempt else "-")
+    def cells(self, t: TraineeOverview) -> tuple[str, ...]:
+        s = t.summary
+        return (s.name, str(s.rounds), "-" if s.mean_score is None else f"{s.mean_score:.0f}",
+                str(s.rounds_with_slips), s.last_attempt.strftime("%Y-%m-%d") if s.last_attempt else "-",
+                "; ".join(t.weak_faults) or "-", "; ".join(t.slips) or "-")
 
 
 def progress_words(progress: Progress | None) -> str:
@@ -76,17 +86,19 @@ def progress_words(progress: Progress | None) -> str:
     if progress.earlier_mean is not None:
         trend = (f"; the last {min(progress.rounds, 5)} average {progress.recent_mean:.0f} "
                  f"against {progress.earlier_mean:.0f} before")
-    return (f"{progress.rounds} rounds, mean score {progress.mean_score:.0f}{trend}. "
+    return (f"{progress.rounds} round{'s' if progress.rounds != 1 else ''}, mean score {progress.mean_score:.0f}{trend}. "
             f"Bench-ready: {progress.ready_rounds}; with a safety slip: {progress.rounds_with_slips}; "
             f"with the coach: {progress.coached_rounds}.")
 
 
 class ProgressView(QWidget):
-    def __init__(self, family_titles: dict[str, str], parent=None) -> None:
+    reopen_asked = Signal(int)  # attempt id
+
+    def __init__(self, names: TradeNames, parent=None) -> None:
         super().__init__(parent)
         self.summary = QLabel()
         self.summary.setWordWrap(True)
-        self.attempts_model = AttemptsModel(family_titles, self)
+        self.attempts_model = AttemptsModel(names, self)
         self.attempts = QTableView()
         self.attempts.setModel(self.attempts_model)
         self.trainees_model = TraineesModel(self)
@@ -94,7 +106,16 @@ class ProgressView(QWidget):
         self.trainees.setModel(self.trainees_model)
         for table in (self.attempts, self.trainees):
             table.verticalHeader().setVisible(False)
-            table.horizontalHeader().setSectionResizeMode(QHeaderView.ResizeMode.Stretch)
+            table.setSelectionBehavior(QTableView.SelectionBehavior.SelectRows)
+            table.setSelectionMode(QTableView.SelectionMode.SingleSelection)
+            table.setWordWrap(True)
+            header = table.horizontalHeader()
+            header.setSectionResizeMode(QHeaderView.ResizeMode.ResizeToContents)
+        self.attempts.horizontalHeader().setSectionResizeMode(3, QHeaderView.ResizeMode.Stretch)
+        self.trainees.horizontalHeader().setSectionResizeMode(5, QHeaderView.ResizeMode.Stretch)
+        self.reopen_button = QPushButton("Open this round's debrief")
+        self.reopen_message = QLabel()
+        self.reopen_message.setWordWrap(True)
         self.passphrase = QLineEdit()
         self.passphrase.setEchoMode(QLineEdit.EchoMode.Password)
         self.passphrase.setPlaceholderText("owner's passphrase")
@@ -108,16 +129,38 @@ class ProgressView(QWidget):
         layout.addWidget(heading("My progress", factor=1.15))
         layout.addWidget(self.summary)
         layout.addWidget(self.attempts, 3)
+        reopen = QHBoxLayout()
+        reopen.addWidget(self.reopen_message, 1)
+        reopen.addWidget(self.reopen_button)
+        layout.addLayout(reopen)
         layout.addWidget(heading("Every trainee (owner)", factor=1.15))
         layout.addLayout(unlock)
         layout.addWidget(self.owner_message)
         layout.addWidget(self.trainees, 2)
 
+        self.reopen_button.clicked.connect(self._reopen)
+        self.attempts.doubleClicked.connect(lambda _index: self._reopen())
+
     def show_progress(self, progress: Progress | None, attempts: list[AttemptRecord]) -> None:
         self.summary.setText(progress_words(progress))
         self.attempts_model.set_rows(list(reversed(attempts)))  # newest first
+        self.reopen_message.clear()
 
-    def show_trainees(self, summaries: list[TraineeSummary]) -> None:
+    def chosen_attempt(self) -> AttemptRecord | None:
+        rows = self.attempts.selectionModel().selectedRows()
+        return self.attempts_model.rows[rows[0].row()] if rows else None
+
+    def _reopen(self) -> None:
+        attempt = self.chosen_attempt()
+        if attempt is None:
+            self.reopen_message.setText("Choose a round in the table first.")
+        elif not attempt.can_reopen or attempt.attempt_id is None:
+            self.reopen_message.setText("That round was kept before debriefs were: it cannot be opened again.")
+        else:
+            self.reopen_message.setText("Playing the round again\u2026")
+            self.reopen_asked.emit(attempt.attempt_id)
+
+    def show_trainees(self, summaries: list[TraineeOverview]) -> None:
         self.trainees_model.set_rows(summaries)
         self.trainees.setVisible(True)
         self.owner_message.setText("")

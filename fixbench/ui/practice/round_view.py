@@ -1,19 +1,28 @@
-"""The round as the trainee plays it: the check catalogue with its search field, the step card, the
-running clock, the readings so far, the optional coach, and the diagnosis to commit."""
+"""The round as the trainee plays it: the unit and the customer's complaint, the check catalogue
+with its search field, the step card, the running clock, the readings so far, the colleague's
+shout when a slip stops the round, the optional coach (its cost said), and the diagnosis."""
 
 from __future__ import annotations
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
-from PySide6.QtWidgets import (QCheckBox, QComboBox, QGroupBox, QHBoxLayout, QHeaderView, QLabel,
-                               QLineEdit, QListWidget, QListWidgetItem, QPushButton, QSplitter,
-                               QTableView, QVBoxLayout, QWidget)
+from html import escape
 
-from fixbench.practice.round import PracticeRound, Step
-from fixbench.workflows import step_wording as wording
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
+from PySide6.QtWidgets import (QCheckBox, QHeaderView, QHBoxLayout, QLabel, QLineEdit, QListWidget,
+                               QListWidgetItem, QSplitter, QTableView, QVBoxLayout, QWidget)
+
+from fixbench.practice.explain import complaint_words
+from fixbench.practice.round import PracticeRound, Step, Stop
+from fixbench.practice.scoring import COACH_FIRST_POINTS, COACH_MAX_POINTS
 from fixbench.ui.bench.look import heading
+from fixbench.ui.practice.diagnosis_box import DiagnosisBox
+from fixbench.ui.practice.slip_alert import SlipAlert
 from fixbench.ui.practice.step_view import PracticeStep
+from fixbench.workflows import step_wording as wording
 
 STEP_COLUMNS = ("#", "Check", "Reading", "Min", "Clock")
+COACH_COST = (f"Asking costs {COACH_FIRST_POINTS:g} points, up to {COACH_MAX_POINTS:g} if kept on, "
+              "and the top band is earned without it.")
+LEVEL_WORDS = {"easy": "Easy", "normal": "Normal", "hard": "Hard"}
 
 
 class StepsModel(QAbstractTableModel):
@@ -56,38 +65,33 @@ class RoundView(QWidget):
     def __init__(self, parent=None) -> None:
         super().__init__(parent)
         self.unit_label = heading("", factor=1.15)
+        self.complaint = QLabel()
+        self.complaint.setWordWrap(True)
         self.clock_label = heading("Clock: 0 min", factor=1.5)
         self.search = QLineEdit()
         self.search.setPlaceholderText("search checks: fuse, lamp, diode, Vcc, ripple\u2026")
         self.search.setClearButtonEnabled(True)
         self.catalogue = QListWidget()
+        self.catalogue.setWordWrap(True)
+        self.catalogue.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.step = PracticeStep()
+        self.alert = SlipAlert()
         self.steps_model = StepsModel(self)
         self.readings = QTableView()
         self.readings.setModel(self.steps_model)
         self.readings.verticalHeader().setVisible(False)
-        self.readings.horizontalHeader().setSectionResizeMode(1, QHeaderView.ResizeMode.Stretch)
         self.readings.setSelectionBehavior(QTableView.SelectionBehavior.SelectRows)
-
-        self.coach_box = QCheckBox("Coach: show the ranked suspects (its use is recorded)")
+        header = self.readings.horizontalHeader()
+        header.setSectionResizeMode(1, QHeaderView.ResizeMode.Stretch)
+        for column in (0, 2, 3, 4):
+            header.setSectionResizeMode(column, QHeaderView.ResizeMode.ResizeToContents)
+        self.coach_box = QCheckBox("Coach: show the ranked suspects")
         self.coach_list = QListWidget()
         self.coach_list.setVisible(False)
-        self.fault = QComboBox()
-        self.fault.setMinimumContentsLength(24)
-        self.fault.setSizeAdjustPolicy(QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
-        self.parts = QListWidget()
-        self.commit_button = QPushButton("Commit diagnosis")
-        self.message = QLabel()
-        self.message.setWordWrap(True)
-        self.event = QLabel()
-        self.event.setWordWrap(True)
-        self.event.setVisible(False)
-        self.catalogue.setWordWrap(True)
-        self.catalogue.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
-        header = self.readings.horizontalHeader()
-        for column in (0, 3, 4):
-            header.setSectionResizeMode(column, QHeaderView.ResizeMode.ResizeToContents)
-        header.setSectionResizeMode(2, QHeaderView.ResizeMode.ResizeToContents)
+        self.coach_list.setMaximumHeight(130)
+        self.diagnosis = DiagnosisBox()
+        self.commit_button, self.message = self.diagnosis.commit_button, self.diagnosis.message
+        self.fault, self.parts = self.diagnosis.fault, self.diagnosis.parts
 
         left = QWidget()
         left_layout = QVBoxLayout(left)
@@ -96,24 +100,19 @@ class RoundView(QWidget):
         left_layout.addWidget(self.catalogue)
         middle = QWidget()
         middle_layout = QVBoxLayout(middle)
+        middle_layout.addWidget(self.alert.frame)
         middle_layout.addWidget(self.step, 3)
-        middle_layout.addWidget(self.event)
         middle_layout.addWidget(QLabel("<b>Readings so far</b>"))
         middle_layout.addWidget(self.readings, 2)
         right = QWidget()
         right_layout = QVBoxLayout(right)
+        coach_cost = QLabel(COACH_COST)
+        coach_cost.setWordWrap(True)
+        coach_cost.setEnabled(False)  # the palette's secondary text
         right_layout.addWidget(self.coach_box)
-        self.coach_list.setMaximumHeight(130)
+        right_layout.addWidget(coach_cost)
         right_layout.addWidget(self.coach_list)
-        commit = QGroupBox("Your diagnosis")
-        commit_layout = QVBoxLayout(commit)
-        commit_layout.addWidget(QLabel("Fault"))
-        commit_layout.addWidget(self.fault)
-        commit_layout.addWidget(QLabel("Parts to replace (tick each)"))
-        commit_layout.addWidget(self.parts, 1)
-        commit_layout.addWidget(self.commit_button)
-        commit_layout.addWidget(self.message)
-        right_layout.addWidget(commit, 2)
+        right_layout.addWidget(self.diagnosis, 2)
         split = QSplitter()
         for w in (left, middle, right):
             split.addWidget(w)
@@ -123,6 +122,7 @@ class RoundView(QWidget):
         top.addWidget(self.clock_label)
         layout = QVBoxLayout(self)
         layout.addLayout(top)
+        layout.addWidget(self.complaint)
         layout.addWidget(split, 1)
 
         self.search.textChanged.connect(self._filter)
@@ -131,53 +131,66 @@ class RoundView(QWidget):
         self.step.take_asked.connect(self.take_asked)
         self.coach_box.toggled.connect(self.coach_toggled)
         self.coach_box.toggled.connect(self.coach_list.setVisible)
-        self.commit_button.clicked.connect(self._commit)
-        self.fault.currentIndexChanged.connect(self._fault_changed)
+        self.diagnosis.commit_asked.connect(self.commit_asked)
+        self.alert.carry_on.clicked.connect(self.carry_on)
         self.round: PracticeRound | None = None
-        self._fault_parts: dict[str, str | None] = {}
 
-    def show_round(self, practice: PracticeRound, choices) -> None:
+    @property
+    def stopped(self) -> bool:
+        """A slip has stopped the round and the trainee has not yet carried on."""
+        return self.alert.frame.isVisible()
+
+    def show_round(self, practice: PracticeRound, choices, chosen_why: str | None = None) -> None:
         self.round = practice
-        self.unit_label.setText(practice.scenario.describe() + f"  \u00b7  level: {practice.scenario.level_id}")
+        level = LEVEL_WORDS.get(practice.scenario.level_id, practice.scenario.level_id)
+        self.unit_label.setText(f"{practice.scenario.describe()}  \u00b7  level: {level}")
+        chosen = f"<br><i>Chosen for you: {escape(chosen_why)}.</i>" if chosen_why else ""
+        said = complaint_words(practice.family, tuple((c, a.text) for c, a in practice.complaint))
+        self.complaint.setText(f"<b>The customer says:</b> {escape(said)}{chosen}")
+        self.catalogue.blockSignals(True)  # the old family's checks must not reach the new round
         self.catalogue.clear()
         for check in practice.family.checks:
             item = QListWidgetItem(f"{check.title}  [{wording.POWER_SHORT[check.power]}, {check.minutes:g} min]")
             item.setData(Qt.ItemDataRole.UserRole, check.id)
             self.catalogue.addItem(item)
+        self.catalogue.blockSignals(False)
         self.search.clear()
-        self.fault.blockSignals(True)
-        self.fault.clear()
-        self._fault_parts = {}
-        for choice in choices:
-            self.fault.addItem(choice.title, choice.fault_id)
-            self._fault_parts[choice.fault_id] = choice.part
-        self.fault.blockSignals(False)
-        self.parts.clear()
-        for part in practice.family.parts:
-            item = QListWidgetItem(f"{part.id}  {part.title}")
-            item.setData(Qt.ItemDataRole.UserRole, part.id)
-            item.setFlags(item.flags() | Qt.ItemFlag.ItemIsUserCheckable)
-            item.setCheckState(Qt.CheckState.Unchecked)
-            self.parts.addItem(item)
+        self.diagnosis.fill(choices, practice.family.parts)
         self.coach_box.setChecked(False)
         self.coach_list.clear()
-        self.message.clear()
-        self.event.setVisible(False)
-        self.commit_button.setEnabled(True)
+        self.alert.hide()
+        self._set_stopped(False)
         self.steps_model.set_steps([])
         self.clock_label.setText("Clock: 0 min")
         self.catalogue.setCurrentRow(0)
+        self._chosen(self.catalogue.currentItem())
 
-    def show_step_taken(self, practice: PracticeRound, step: Step) -> None:
-        if step.slip is not None and step.slip.blew_fuse:
-            # The one slip the bench makes plain at once: a bang and a dead unit.
-            self.event.setText("\u26a0 A pop and a flash as mains went on: the fuse has blown. "
-                               "Unplug, and think about what you knew before powering it.")
-            self.event.setVisible(True)
+    def show_taken(self, practice: PracticeRound, taken: Step | Stop) -> None:
+        if isinstance(taken, Stop):
+            self.alert.show_slip(taken.slip, taken.counted)
+            self._set_stopped(True)
+            return
+        if taken.slip is not None:
+            self.alert.show_slip(taken.slip, True)
+            self._set_stopped(True)
+        elif taken.fuse_blew:  # the rules were kept and the fuse blew all the same: say so
+            self.alert.shout.setText("<b>\u26a0 A pop as mains went on: the fuse has blown.</b>")
+            self.alert.why.setText("Unplug it. The readings before said no short was likely; look again at them.")
+            self.alert.frame.setVisible(True)
+            self._set_stopped(True)
         self.steps_model.set_steps(practice.steps)
         self.readings.scrollToBottom()
         self.clock_label.setText(f"Clock: {practice.clock:g} min")
         self.step.show_reading(practice.state)
+
+    def carry_on(self) -> None:
+        self.alert.hide()
+        self._set_stopped(False)
+
+    def _set_stopped(self, stopped: bool) -> None:
+        for widget in (self.catalogue, self.search, self.diagnosis):
+            widget.setEnabled(not stopped)
+        self.step.set_enabled(not stopped)
 
     def show_coach(self, suspects) -> None:
         self.coach_list.clear()
@@ -199,27 +212,14 @@ class RoundView(QWidget):
         if item is not None and self.round is not None:
             self.step.show_check(self.round.state, item.data(Qt.ItemDataRole.UserRole))
 
-    def _fault_changed(self, _index: int) -> None:
-        part = self._fault_parts.get(self.fault.currentData())
-        if part is None:
-            return
-        for i in range(self.parts.count()):
-            item = self.parts.item(i)
-            if item.data(Qt.ItemDataRole.UserRole) == part:
-                item.setCheckState(Qt.CheckState.Checked)
-
     def ticked_parts(self) -> set[str]:
-        return {self.parts.item(i).data(Qt.ItemDataRole.UserRole) for i in range(self.parts.count())
-                if self.parts.item(i).checkState() == Qt.CheckState.Checked}
+        return self.diagnosis.ticked_parts()
 
     def tick_parts(self, part_ids) -> None:
-        for i in range(self.parts.count()):
-            item = self.parts.item(i)
-            on = item.data(Qt.ItemDataRole.UserRole) in set(part_ids)
-            item.setCheckState(Qt.CheckState.Checked if on else Qt.CheckState.Unchecked)
+        self.diagnosis.tick_parts(part_ids)
 
     def choose_fault(self, fault_id: str) -> None:
-        self.fault.setCurrentIndex(self.fault.findData(fault_id))
+        self.diagnosis.choose_fault(fault_id)
 
     def choose_check(self, check_id: str) -> None:
         for i in range(self.catalogue.count()):
@@ -227,9 +227,6 @@ class RoundView(QWidget):
                 self.catalogue.setCurrentRow(i)
                 return
         raise KeyError(check_id)
-
-    def _commit(self) -> None:
-        self.commit_asked.emit(self.fault.currentData(), self.ticked_parts())
 
     def set_busy(self, busy: bool, text: str = "") -> None:
         self.commit_button.setEnabled(not busy)

@@ -1,14 +1,16 @@
-"""The practice screen: pick a round, play it, read the debrief; progress beside it.
+"""The practice screen: pick a round, play it, read the debrief; progress beside it, where a kept
+round's debrief opens again.
 
 Widgets render and forward; :class:`fixbench.workflows.practice.PracticeRounds` talks to the
-practice package and the store. The
-engine's own path for the debrief runs off the GUI thread.
+practice package and the store. The engine's own path for the debrief, and a kept round played
+again, run off the GUI thread.
 """
 
 from __future__ import annotations
 
 from PySide6.QtWidgets import QStackedWidget, QTabWidget, QVBoxLayout, QWidget
 
+from fixbench.practice.record import RecordError
 from fixbench.practice.round import RoundError
 from fixbench.store.errors import OwnerRequired
 from fixbench.ui.context import AppContext
@@ -18,6 +20,7 @@ from fixbench.ui.practice.progress_view import ProgressView
 from fixbench.ui.practice.round_view import RoundView
 from fixbench.ui.workers import run_in_background
 from fixbench.workflows.practice import PracticeRounds
+from fixbench.workflows.trade_names import TradeNames
 
 
 class PracticeScreen(QWidget):
@@ -31,7 +34,7 @@ class PracticeScreen(QWidget):
         self.pages = QStackedWidget()
         for page in (self.pick, self.round_view, self.debrief_view):
             self.pages.addWidget(page)
-        self.progress_view = ProgressView({f.id: f.title for f in context.knowledge.families.values()})
+        self.progress_view = ProgressView(TradeNames(context.knowledge))
         self.tabs = QTabWidget()
         self.tabs.addTab(self.pages, "Round")
         self.tabs.addTab(self.progress_view, "Progress")
@@ -39,6 +42,7 @@ class PracticeScreen(QWidget):
         layout.setContentsMargins(4, 4, 4, 4)
         layout.addWidget(self.tabs)
 
+        self.pick.next_asked.connect(self.next_unit)
         self.pick.start_asked.connect(self.start)
         self.pick.replay_asked.connect(self.replay)
         self.pick.trainee_changed.connect(self.choose_trainee)
@@ -46,9 +50,9 @@ class PracticeScreen(QWidget):
         self.round_view.coach_toggled.connect(self.toggle_coach)
         self.round_view.commit_asked.connect(self.commit)
         self.debrief_view.again_asked.connect(self.back_to_pick)
+        self.progress_view.reopen_asked.connect(self.reopen)
         self.progress_view.unlock_button.clicked.connect(self.unlock_owner)
         self.progress_view.passphrase.returnPressed.connect(self.unlock_owner)
-        self._cases = []
         self.refresh()
 
     # --- picking -----------------------------------------------------------------------------------
@@ -58,22 +62,25 @@ class PracticeScreen(QWidget):
         trainees = c.trainees()
         if c.trainee_id is None and self.context.technician_id in {tid for tid, _ in trainees}:
             c.trainee_id = self.context.technician_id
-        self._cases = c.past_cases()
-        self.pick.fill(trainees, c.families(), c.levels(), self._cases, c.trainee_id)
+        self.pick.fill(trainees, c.families(), c.levels(), c.replay_choices(), c.trainee_id)
         self._show_progress()
 
     def choose_trainee(self, trainee_id) -> None:
         self.controller.trainee_id = trainee_id
         self._show_progress()
 
+    def next_unit(self, level_id: str) -> None:
+        self.controller.next_for_trainee(level_id)
+        self._play(self.controller.round)
+
     def start(self, family_id: str, level_id: str) -> None:
         self._play(self.controller.start(family_id, level_id))
 
-    def replay(self, row: int, level_id: str) -> None:
-        self._play(self.controller.replay(self._cases[row], level_id))
+    def replay(self, case, level_id: str) -> None:
+        self._play(self.controller.replay(case, level_id))
 
     def _play(self, practice) -> None:
-        self.round_view.show_round(practice, self.controller.fault_choices())
+        self.round_view.show_round(practice, self.controller.fault_choices(), self.controller.chosen_why)
         self.pages.setCurrentWidget(self.round_view)
         self.round_view.search.setFocus()
 
@@ -84,10 +91,12 @@ class PracticeScreen(QWidget):
     # --- the round ---------------------------------------------------------------------------------
 
     def take(self, check_id: str) -> None:
+        if self.round_view.stopped:
+            return  # the colleague is still talking: carry on first
         practice = self.controller.round
-        step = practice.take(check_id)
-        self.round_view.show_step_taken(practice, step)
-        if self.round_view.coach_box.isChecked():
+        taken = practice.take(check_id)
+        self.round_view.show_taken(practice, taken)
+        if self.round_view.coach_box.isChecked() and not self.round_view.stopped:
             self.round_view.show_coach(practice.coach().suspects)
 
     def toggle_coach(self, on: bool) -> None:
@@ -120,6 +129,24 @@ class PracticeScreen(QWidget):
     def _show_progress(self) -> None:
         c = self.controller
         self.progress_view.show_progress(c.progress(), c.attempts())
+
+    def reopen(self, attempt_id: int) -> None:
+        run_in_background(self.controller.reopen_work(attempt_id), self._reopened, self._reopen_failed)
+
+    def _reopened(self, reopened) -> None:
+        note = ("Opened again from the kept round." if reopened.same_readings else
+                "Opened again from the kept round; the knowledge or the engine changed since, so some "
+                "readings differ from those seen then.")
+        self.progress_view.reopen_message.clear()
+        self.debrief_view.show_debrief(reopened.played.debrief, None, note)
+        self.pages.setCurrentWidget(self.debrief_view)
+        self.tabs.setCurrentIndex(0)
+
+    def _reopen_failed(self, err: Exception) -> None:
+        if isinstance(err, RecordError):
+            self.progress_view.reopen_message.setText(f"\u26a0 {err}")
+            return
+        raise err
 
     def unlock_owner(self) -> None:
         work = self.controller.unlock_owner(self.progress_view.passphrase.text())

@@ -3,7 +3,7 @@
 The card shows the chosen check as the bench does (power state, cautions, where, with what, what a
 healthy unit shows, how). In practice the hidden unit gives the reading, so the typing field, the
 outcome buttons and the bench's navigation are hidden and the card's keep button takes the check.
-After the reading the card marks it in or out of band, as on the bench.
+After the reading the card marks it healthy or not, with what a healthy unit reads beside it.
 """
 
 from __future__ import annotations
@@ -47,6 +47,9 @@ class PracticeStep(QWidget):
         e = proposal.expected
         healthy = format_band(e.low, e.high, e.unit) if e is not None else proposal.expected_outcome or "-"
         self.card.show_mark(reading, healthy)
+        # In the trade's words, as the debrief puts it.
+        self.card.mark_label.setText(f"\u2714 {reading.shown()}: healthy" if reading.in_band else
+                                     f"\u2716 {reading.shown()}: not healthy (a healthy unit: {healthy})")
 
     def set_enabled(self, on: bool) -> None:
         self.card.record_button.setEnabled(on and self.check_id is not None)
