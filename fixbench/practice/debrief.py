@@ -171,7 +171,7 @@ def _told(before: DiagnosisState, after: DiagnosisState, step: Step, careful: st
     told = what_it_told(before, after).words()
     if careful is None:
         return told
-    found = "out of the healthy band: replace it" if after.readings[-1].in_band is False else "healthy"
+    found = "failed: replace it" if after.readings[-1].in_band is False else "healthy"
     return (f"A check before power-up: {careful} ({before.family.part(careful).title}) is often damaged "
             f"along with the leading suspect; it read {found}. {told[0].upper()}{told[1:]}")
 

@@ -5,6 +5,7 @@ from __future__ import annotations
 
 from fixbench.engine.diagnosis import start_diagnosis
 from fixbench.physics.ratings import parse_ratings
+from fixbench.quantities import format_band, format_quantity
 from fixbench.practice.explain import (complaint_words, healthy_words, predicted_words, separation_words,
                                        what_it_told, why_engine_chose)
 
@@ -31,7 +32,9 @@ def test_a_reading_that_moves_nothing_says_so(flyback):
 
 def test_the_healthy_value_is_the_physics_band_or_the_healthy_outcome(flyback):
     state = opening(flyback)
-    assert healthy_words(state, "mosfet_drain_source") == "at least 100 kohm"
+    drain = state.model.checks[state.model.check_index("mosfet_drain_source")].healthy
+    assert healthy_words(state, "mosfet_drain_source") == (
+        f"{format_quantity(drain.nominal, 'ohm')} ({format_band(drain.low, drain.high, 'ohm')})")
     assert healthy_words(state, "series_lamp") == "dim"  # flashes, then dim [practice]
     assert healthy_words(state, "fuse_resistance").startswith("50 mohm (")
 
@@ -39,7 +42,8 @@ def test_the_healthy_value_is_the_physics_band_or_the_healthy_outcome(flyback):
 def test_what_a_suspect_would_read_comes_from_the_engines_prediction(flyback):
     state = opening(flyback)
     assert predicted_words(state, "mosfet_drain_source", "Q1.short").startswith("about 3")  # ~0.3 ohm
-    assert predicted_words(state, "mosfet_drain_source", "C3.dried") == "OL"
+    healthy = state.model.checks[state.model.check_index("mosfet_drain_source")].healthy.nominal
+    assert predicted_words(state, "mosfet_drain_source", "C3.dried") == f"about {format_quantity(healthy, 'ohm')}"
     # A shorted switch usually took the fuse with it: the lamp stays dark; with the fuse read good,
     # the same fault lights it bright.
     assert predicted_words(state, "series_lamp", "Q1.short") == "off"
