@@ -141,8 +141,7 @@ def why_engine_chose(state: DiagnosisState, check_id: str) -> str:
     """Why the engine takes ``check_id`` next from ``state``, in plain words."""
     check = state.family.check(check_id)
     if check.procedure:
-        return ("the unit had been powered: it confirms the bulk capacitor is discharged before any "
-                "hand goes on the primary")
+        return "it confirms the bulk capacitor is discharged before any hand goes on the primary"
     if any(r.check == check_id for r in state.readings):
         return ("the leading suspect rested on this one reading: it takes it again in case that was a "
                 "misread or a poor probe contact")

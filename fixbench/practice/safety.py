@@ -8,8 +8,9 @@ by the engine's own rules (so a change to the planner's safety gate changes prac
 - plain mains while the planner would not allow it: a short on the primary still plausible from
   the trainee's readings, or no series-lamp power-up yet that did not glow bright; a colleague
   stops the plug before it goes in;
-- a hand on the primary while the planner would first confirm the bulk capacitor discharged; a
-  colleague stops the hand.
+- a hand on the primary while the planner would first confirm the bulk capacitor discharged (today
+  after any power-up; whatever the planner's rule becomes, this follows it); a colleague stops the
+  hand.
 
 A slip stops the round at once. It costs once per mistake: reaching for the same thing again
 before anything was done to put it right (before another power-up, for the discharge) is the same
@@ -34,7 +35,7 @@ KINDS = (MAINS_ON_SHORT, MAINS_UNPROVEN, UNDISCHARGED)
 WHAT = {
     MAINS_ON_SHORT: "Plain mains on a unit with a shorted primary: the fuse blew again.",
     MAINS_UNPROVEN: "Reached for plain mains before the series lamp had shown there was no short.",
-    UNDISCHARGED: "Reached for the primary after a power-up without confirming the bulk capacitor was discharged.",
+    UNDISCHARGED: "Reached for the primary without confirming the bulk capacitor was discharged.",
 }
 NAMES = {  # short names, for the owner's table of slips by kind
     MAINS_ON_SHORT: "plain mains on a short",
@@ -45,8 +46,8 @@ SHOUT = {
     MAINS_ON_SHORT: "Bang! The fuse has blown: plain mains went onto a shorted primary. Unplug it.",
     MAINS_UNPROVEN: "Stop! Not on plain mains yet: nothing has shown there is no short on the primary. "
                     "Power it up through the series lamp first.",
-    UNDISCHARGED: "Stop! Hands off the primary: the unit was powered and nobody has confirmed the bulk "
-                  "capacitor is discharged. Measure it first.",
+    UNDISCHARGED: "Stop! Hands off the primary: nobody has confirmed the bulk capacitor is discharged. "
+                  "Measure it first.",
 }
 WHY = {
     MAINS_ON_SHORT: ("A short across the rectified mains draws a current limited only by the wiring: the "

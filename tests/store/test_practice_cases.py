@@ -4,7 +4,6 @@ from __future__ import annotations
 
 from datetime import datetime
 
-from fixbench.store import open_store
 from fixbench.store.cases import add_reading, close_case, open_case
 from fixbench.store.people import add_device, add_practice_attempt, add_technician
 from fixbench.store.practice_cases import (attempt_record, attempts_of, every_trainees_attempts, replayable_cases,
@@ -12,8 +11,7 @@ from fixbench.store.practice_cases import (attempt_record, attempts_of, every_tr
 from fixbench.workflows.practice import kept_attempts
 
 
-def test_closed_cases_are_offered_without_who_or_whose(tmp_path):
-    store = open_store(tmp_path / "t.sqlite")
+def test_closed_cases_are_offered_without_who_or_whose(store):
     tech = add_technician(store, "Cy Bench")
     device = add_device(store, make="Northwind", model="NW-12", kind="adapter",
                         label_ratings={"output": "12 V"})
@@ -30,8 +28,7 @@ def test_closed_cases_are_offered_without_who_or_whose(tmp_path):
     assert "Mrs Example" not in repr(cases[0]) and "T-1" not in repr(cases[0])
 
 
-def test_attempts_come_oldest_first_and_every_trainee_is_summed(tmp_path):
-    store = open_store(tmp_path / "t.sqlite")
+def test_attempts_come_oldest_first_and_every_trainee_is_summed(store):
     ada = add_technician(store, "Ada Test", role="trainee")
     add_technician(store, "Bo Test", role="trainee")
     add_technician(store, "Cy Bench")
@@ -46,8 +43,7 @@ def test_attempts_come_oldest_first_and_every_trainee_is_summed(tmp_path):
     assert summaries[1].rounds == 0
 
 
-def test_coach_use_and_a_blown_fuse_are_kept_beside_the_scenario_id(tmp_path):
-    store = open_store(tmp_path / "t.sqlite")
+def test_coach_use_and_a_blown_fuse_are_kept_beside_the_scenario_id(store):
     ada = add_technician(store, "Ada Test", role="trainee")
     add_practice_attempt(store, trainee_id=ada, scenario="drawn:easy:f:a:s1", checks_used=3, minutes=5,
                          score=95, safety_slips=1, attempted_at=datetime(2024, 1, 1),
@@ -59,11 +55,9 @@ def test_coach_use_and_a_blown_fuse_are_kept_beside_the_scenario_id(tmp_path):
     assert (clean.coach_used, clean.fuse_blown) == (False, False)  # the defaults
     blown, clean = kept_attempts(store, ada)  # as practice reads them
     assert blown.band == "Keep practising" and clean.band == "Bench-ready"
-    store.close()
 
 
-def test_what_a_round_taught_and_its_record_are_kept(tmp_path):
-    store = open_store(tmp_path / "t.sqlite")
+def test_what_a_round_taught_and_its_record_are_kept(store):
     ada = add_technician(store, "Ada Test", role="trainee")
     bo = add_technician(store, "Bo Test", role="trainee")
     record = {"version": 1, "actions": [["take", "look_fuse"]]}
@@ -83,11 +77,9 @@ def test_what_a_round_taught_and_its_record_are_kept(tmp_path):
     every = every_trainees_attempts(store)
     assert [a.scenario for a in every[ada]] == ["drawn:easy:f:a:s1", "drawn:easy:f:b:s2"]
     assert [a.scenario for a in every[bo]] == ["drawn:easy:f:c:s3"]
-    store.close()
 
 
-def test_a_replayable_case_carries_what_its_customer_said(tmp_path):
-    store = open_store(tmp_path / "t.sqlite")
+def test_a_replayable_case_carries_what_its_customer_said(store):
     tech = add_technician(store, "Cy Bench")
     device = add_device(store, make="Northwind", model="NW-12", kind="adapter", label_ratings={"output": "12 V"})
     case_id = open_case(store, ticket_ref="T-1", device_id=device, technician_id=tech, family_id="pwm_flyback",
@@ -99,4 +91,3 @@ def test_a_replayable_case_carries_what_its_customer_said(tmp_path):
                closed_at=datetime(2024, 3, 5))
     (case,) = replayable_cases(store, told_checks={"symptom_dead", "symptom_hot"})
     assert case.told == (("symptom_dead", "yes"), ("symptom_hot", "no"))
-    store.close()
