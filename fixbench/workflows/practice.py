@@ -21,7 +21,7 @@ from fixbench.knowledge import KnowledgeBase
 from fixbench.knowledge.model import Family
 from fixbench.practice.curriculum import NextUnit, next_unit, weaknesses
 from fixbench.practice.debrief import Debrief, debrief_round
-from fixbench.practice.engine_path import EnginePath, engine_path
+from fixbench.practice.engine_path import engine_path
 from fixbench.practice.explain import fault_title
 from fixbench.practice.levels import LEVELS, level
 from fixbench.practice.progress import AttemptRecord, Progress, attempt_fields, progress_of
@@ -183,14 +183,15 @@ class PracticeRounds:
     def commit(self, fault_id: str, parts: set[str]) -> None:
         self.round.commit(fault_id, parts)
 
-    def engine_path_work(self) -> Callable[[], EnginePath]:
-        """The engine's path on the same unit, as work for a background thread."""
-        family, scenario = self.round.family, self.round.scenario
-        return lambda: engine_path(family, scenario)
+    def debrief_work(self) -> Callable[[], Debrief]:
+        """The engine's path on the same unit and the debrief against it, as work for a background
+        thread (together they take longer than a screen should wait)."""
+        practice = self.round
+        return lambda: debrief_round(practice, engine_path(practice.family, practice.scenario))
 
-    def finish(self, path: EnginePath) -> Debrief:
-        """The debrief, and the attempt kept for the trainee playing."""
-        self.debrief = debrief_round(self.round, path)
+    def finish(self, debrief: Debrief) -> Debrief:
+        """Keep the attempt for the trainee playing."""
+        self.debrief = debrief
         if self.trainee_id is not None:
             self.attempt_id = people.add_practice_attempt(
                 self.store, trainee_id=self.trainee_id, attempted_at=self.clock(),

@@ -32,7 +32,7 @@ def play_easy_start_resistor_wrong(rounds):
     assert rounds.round.scenario.fault_id == "R1.open"
     rounds.round.take("start_resistor")
     rounds.commit("C3.dried", {"C3"})
-    return rounds.finish(rounds.engine_path_work()())
+    return rounds.finish(rounds.debrief_work()())
 
 
 def test_a_round_is_kept_under_the_workflows_clock_with_what_it_taught(rounds):
@@ -70,7 +70,7 @@ def test_the_owner_sees_each_trainees_faults_missed_and_slips_by_kind(rounds):
     rounds.round.take("series_lamp")
     rounds.round.take("start_resistor")  # stopped: the bulk capacitor was not confirmed discharged
     rounds.commit("R1.open", {"R1"})
-    rounds.finish(rounds.engine_path_work()())
+    rounds.finish(rounds.debrief_work()())
     (ada,) = trainee_overviews(rounds.store, rounds.knowledge)
     assert ada.summary.rounds == 2
     assert ada.weak_faults[0].endswith("(missed 1 of 1)")

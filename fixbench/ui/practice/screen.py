@@ -2,7 +2,7 @@
 round's debrief opens again.
 
 Widgets render and forward; :class:`fixbench.workflows.practice.PracticeRounds` talks to the
-practice package and the store. The engine's own path for the debrief, and a kept round played
+practice package and the store. The engine's own path and the debrief, and a kept round played
 again, run off the GUI thread.
 """
 
@@ -110,10 +110,10 @@ class PracticeScreen(QWidget):
             self.round_view.message.setText(f"\u26a0 {err}")
             return
         self.round_view.set_busy(True, "Working out the engine's own path on this unit\u2026")
-        run_in_background(self.controller.engine_path_work(), self._debrief, self._failed)
+        run_in_background(self.controller.debrief_work(), self._debrief, self._failed)
 
-    def _debrief(self, path) -> None:
-        debrief = self.controller.finish(path)
+    def _debrief(self, debrief) -> None:
+        self.controller.finish(debrief)
         names = dict(self.controller.trainees())
         self.debrief_view.show_debrief(debrief, names.get(self.controller.trainee_id))
         self.round_view.set_busy(False)
