@@ -34,14 +34,14 @@ EASY = Level("easy", "Easy", "One clear fault, exact readings.",
              changes=("Damage: the failed part, and only the damage that nearly always goes with it "
                       "(a short takes the fuse).",
                       "Readings: exactly what the unit gives.",
-                      "The customer's complaint: true."))
+                      "The customer's complaint: exactly what the unit does."))
 NORMAL = Level("normal", "Normal", "Collateral damage, readings within meter tolerance.",
                collateral=True, exact=False, wrong_rate=0.0, report_wrong_rate=0.0,
                intermittent_boost=1.0, intermittent_away=0.0,
                changes=("Damage: parts that often fail with the fault may be hidden too; test them "
                         "before powering up.",
                         "Readings: within the meter's and the parts' tolerance.",
-                        "The customer's complaint: true."))
+                        "The customer's complaint: as customers tell it; now and then a detail is off."))
 # The hard figures are judgement, not measurement [practice]: one complaint in four misleads, one
 # meter reading in twenty is off, and a fault that comes and goes is away for one reading in three.
 HARD = Level("hard", "Hard", "Misleading customer reports, an occasional reading that is off, "
@@ -51,7 +51,7 @@ HARD = Level("hard", "Hard", "Misleading customer reports, an occasional reading
              changes=("Damage: as Normal, hidden parts that failed with the fault.",
                       "Readings: one in twenty is off (a misread or a poor probe contact); faults "
                       "that come and go may be away while the unit is powered.",
-                      "The customer's complaint: one in four has a detail wrong."))
+                      "The customer's complaint: as on Normal, and one in four has a detail plainly wrong."))
 
 LEVELS: dict[str, Level] = {level.id: level for level in (EASY, NORMAL, HARD)}
 

@@ -59,3 +59,14 @@ def test_a_replayed_case_keeps_what_its_customer_said(flyback):
                         "replay", "2024-05", (("symptom_dead", "yes"), ("symptom_hot", "no")))
     told = dict(HiddenUnit(flyback, scenario).complaint)
     assert (told["symptom_dead"].text, told["symptom_hot"].text) == ("yes", "no")
+
+
+def test_the_complaint_is_exact_on_easy_and_now_and_then_off_on_normal(flyback):
+    # As the levels say: the engine's own prediction on easy; drawn with its spread on normal.
+    scenario = Scenario("pwm_flyback", RATINGS, "Q1.short", (("Q1", "short"), ("F1", "open")), "easy", 0, False)
+    easy = {tuple((c, a.text) for c, a in HiddenUnit(flyback, replace(scenario, seed=s)).complaint)
+            for s in range(30)}
+    assert len(easy) == 1  # whatever the seed, the same story: exactly what the unit does
+    normal = {tuple((c, a.text) for c, a in HiddenUnit(flyback, replace(scenario, level_id="normal", seed=s)).complaint)
+              for s in range(30)}
+    assert len(normal) > 1
