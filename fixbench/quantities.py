@@ -116,10 +116,16 @@ def parse_quantity(text: str, expect_unit: str | None = None) -> Measured:
     if unit_word == "%":
         raise ReadingError(f"'{raw}': type the value itself, not a percentage")
     scale, unit = _split_prefix(unit_word)
-    # Scale through the exponent text so 100 uF is exactly 1e-4, not 9.999...e-5.
-    value = float(f"{number_text}e{round(math.log10(scale))}") if scale != 1.0 else number
+    value = _scaled(number_text, round(math.log10(scale))) if scale != 1.0 else number
     canonical = unit or expect_unit
     return _checked(Measured(value, canonical), expect_unit, raw, typed_unit=unit or None)
+
+
+def _scaled(number_text: str, exponent: int) -> float:
+    """The number times 10**exponent, added to its own exponent ("5e3" with m is 5e0), so 100 uF
+    is exactly 1e-4, not 9.999...e-5."""
+    mantissa, _, own = number_text.lower().partition("e")
+    return float(f"{mantissa}e{int(own or 0) + exponent}")
 
 
 def _checked(measured: Measured, expect_unit: str | None, raw: str, typed_unit: str | None) -> Measured:
@@ -129,6 +135,9 @@ def _checked(measured: Measured, expect_unit: str | None, raw: str, typed_unit: 
         raise ReadingError(f"'{raw}' is in {got}, but this check reads {want} ({expect_unit})")
     if math.isnan(measured.value):
         raise ReadingError(f"'{raw}' is not a number")
+    if math.isinf(measured.value):
+        # Only the over-range words mean infinity; a typed number this large is a slip.
+        raise ReadingError(f"'{raw}' is too large a number; for a meter over range type OL")
     return measured
 
 

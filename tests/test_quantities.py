@@ -55,6 +55,20 @@ def test_microfarads_scale_exactly():
     assert parse_quantity("100 uF").value == 1e-4
 
 
+@pytest.mark.parametrize(("text", "value"), [("5e3mV", 5.0), ("5E3 mV", 5.0), ("1e-3 kV", 1.0),
+                                             ("2.5e-3 kohm", 2.5), ("4.7e2 uF", 4.7e-4)])
+def test_an_exponent_with_a_prefix_adds_up(text, value):
+    # "5e3mV" was a ValueError (float("5e3e-3")) instead of 5 V.
+    # quantiphy is no cross-check here: it takes "mV" after an exponent as the unit's name.
+    assert parse_quantity(text).value == pytest.approx(value, rel=1e-12)  # [src: SI Brochure 9th ed., 3.1: a prefix multiplies the unit by its power of ten]
+
+
+@pytest.mark.parametrize("text", ["1e400 V", "1e308 kV", "-1e400"])
+def test_a_number_too_large_for_a_float_is_refused_not_read_as_over_range(text):
+    with pytest.raises(ReadingError, match="too large a number"):
+        parse_quantity(text, "V")
+
+
 @pytest.mark.parametrize("text", ["OL", "ol", "O.L.", "open", "  OL  "])
 def test_over_range_reads_as_infinity(text):
     measured = parse_quantity(text, "ohm")

@@ -2,10 +2,13 @@
 
 from __future__ import annotations
 
-from fixbench.commands.usage import UsageError
+from fixbench.commands.usage import UsageError, near_matches
+from fixbench.engine.fault_model import cached_fault_model
 from fixbench.knowledge import Family, load_knowledge
 from fixbench.physics.ratings import Ratings, parse_ratings
 from fixbench.quantities import ReadingError
+
+OPTIONAL_RATINGS = ("bench_mains", "frequency", "bulk", "switching")
 
 
 def add_unit_arguments(parser, family_required: bool = True) -> None:
@@ -20,22 +23,40 @@ def add_unit_arguments(parser, family_required: bool = True) -> None:
 
 
 def ratings_text(args) -> dict[str, str]:
+    """The ratings typed on the command line; an option given with blank text is a slip, not a
+    request for the default."""
     text = {"mains": args.mains, "output": args.output, "current": args.current}
-    for key, value in (("bench_mains", args.bench_mains), ("frequency", args.frequency),
-                       ("bulk", args.bulk), ("switching", args.switching)):
-        if value:
+    for key in OPTIONAL_RATINGS:
+        value = getattr(args, key)
+        if value is not None:
             text[key] = value
+    for key, value in text.items():
+        if not value.strip():
+            option = "--" + key.replace("_", "-")
+            raise UsageError(f"{option} is empty: give a value (see --help) or leave the option out")
     return text
 
 
-def family_and_ratings(family_id: str, ratings: dict) -> tuple[Family, Ratings]:
-    try:
-        family = load_knowledge().family(family_id)
-    except KeyError as err:
-        raise UsageError(str(err).strip("'\"")) from None
+def family_named(family_id: object) -> Family:
+    """The family of that id, or a one-line error naming the ones close to it."""
+    families = load_knowledge().families
+    if not isinstance(family_id, str):
+        raise UsageError(f"the family must be an id as text, such as pwm_flyback, not {family_id!r:.40}")
+    if family_id not in families:
+        raise UsageError(f"unknown supply family '{family_id}'{near_matches(family_id, families)}; "
+                         "`fixbench families` lists them")
+    return families[family_id]
+
+
+def family_and_ratings(family_id: object, ratings: object) -> tuple[Family, Ratings]:
+    """The family and its parsed ratings, refused in one line unless the family's circuit can have
+    them (its healthy readings are built here once, and cached for the command that follows)."""
+    family = family_named(family_id)
     if not isinstance(ratings, dict) or not all(isinstance(v, str) for v in ratings.values()):
         raise UsageError("ratings must be an object of text values, e.g. {\"mains\": \"230 V\"}")
     try:
-        return family, parse_ratings(ratings)
+        parsed = parse_ratings(ratings)
+        cached_fault_model(family, parsed)
     except ReadingError as err:
         raise UsageError(str(err)) from None
+    return family, parsed

@@ -3,7 +3,7 @@
 
 from __future__ import annotations
 
-from fixbench.commands.usage import UsageError
+from fixbench.commands.usage import UsageError, near_matches
 from fixbench.commands._output import print_json
 from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
 from fixbench.engine import simulate_readings
@@ -25,7 +25,10 @@ def run(args) -> int:
     text = ratings_text(args)
     family, ratings = family_and_ratings(args.family, text)
     if args.fault != NO_FAULT and args.fault not in {f.id for f in family.faults}:
-        raise UsageError(f"unknown fault '{args.fault}' for family '{family.id}'")
+        known = [f.id for f in family.faults]
+        raise UsageError(f"unknown fault '{args.fault}' for family '{family.id}'"
+                         f"{near_matches(args.fault, known)}; `fixbench families --faults "
+                         f"{family.id}` lists them")
     if not 0.0 <= args.wrong_rate <= 1.0:
         raise UsageError("--wrong-rate must be between 0 and 1")
     readings = simulate_readings(family, ratings, args.fault, seed=args.seed, noise=not args.exact,

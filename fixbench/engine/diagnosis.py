@@ -7,6 +7,7 @@ built once per unit and shared by all states of the same case.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
 from functools import cached_property
 
@@ -77,6 +78,16 @@ class DiagnosisState:
         reading = read(self.model.checks[i], text)
         k = self.model.checks[i].classes.names.index(reading.outcome)
         return replace(self, readings=self.readings + (reading,), _evidence=self._evidence + ((i, k),))
+
+    def with_readings(self, readings: Sequence[Reading]) -> "DiagnosisState":
+        """Readings already read against their checks (:func:`fixbench.engine.readings.read`), taken
+        in order at once: a replay of thousands builds one state, not one per reading."""
+        evidence = []
+        for reading in readings:
+            i = self.model.check_index(reading.check)
+            evidence.append((i, self.model.checks[i].classes.names.index(reading.outcome)))
+        return replace(self, readings=self.readings + tuple(readings),
+                       _evidence=self._evidence + tuple(evidence))
 
     def skip(self, check_id: str) -> "DiagnosisState":
         self.model.check_index(check_id)

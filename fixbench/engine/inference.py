@@ -26,6 +26,18 @@ def posterior(model: FaultModel, evidence: Evidence, prior: np.ndarray | None = 
     return p / p.sum()
 
 
+def log_likelihood(model: FaultModel, evidence: Evidence) -> np.ndarray:
+    """Sum over the readings of log P(reading | hypothesis), one entry per hypothesis; each distinct
+    (check, outcome) pair is looked up once and weighted by how often it was read."""
+    total = np.zeros(len(model.prior))
+    if not evidence:
+        return total
+    pairs, counts = np.unique(np.asarray(evidence, dtype=np.int64), axis=0, return_counts=True)
+    for (check_index, class_index), count in zip(pairs, counts):
+        total += count * np.log(model.checks[check_index].table[:, class_index])
+    return total
+
+
 def root_posterior(model: FaultModel, hypothesis_posterior: np.ndarray) -> np.ndarray:
     return np.bincount(model.root_of, weights=hypothesis_posterior, minlength=len(model.roots))
 

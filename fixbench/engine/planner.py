@@ -28,8 +28,7 @@ import numpy as np
 
 from fixbench.engine.fault_model import FaultModel
 from fixbench.knowledge.model import Check
-from fixbench.engine.inference import information_about_root, root_posterior
-from fixbench.engine.inference import posterior as posterior_of
+from fixbench.engine.inference import information_about_root, log_likelihood, root_posterior
 
 SHORT_THRESHOLD = 0.02  # posterior of a primary short above which plain mains is not proposed
 CLEAR_ROOT = 0.95  # a root fault (or group) this likely ends the search
@@ -87,14 +86,26 @@ def finished(model: FaultModel, posterior: np.ndarray) -> bool:
 
 
 def fragile_readings(model: FaultModel, posterior: np.ndarray, evidence: tuple[tuple[int, int], ...]) -> list[int]:
-    """Check indices whose single reading the leading fault depends on."""
+    """Check indices whose single reading the leading fault depends on.
+
+    Leaving one reading out divides its likelihood back out of the product, so each distinct
+    (check, outcome) pair is tried once from the sum of log-likelihoods: the work grows with the
+    number of readings, not its square (a replayed case file may hold thousands)."""
+    if not evidence:
+        return []
     group, _ = group_chances(model, posterior)[0]
+    log_all = log_likelihood(model, evidence)
+    log_prior = np.log(model.prior)
+    dropped: dict[tuple[int, int], bool] = {}
     fragile = []
-    for j, (check_index, _) in enumerate(evidence):
-        rest = evidence[:j] + evidence[j + 1:]
-        without = posterior_of(model, rest)
-        share = dict(group_chances(model, without)).get(group, 0.0)
-        if share < FRAGILE_BELOW:
+    for check_index, class_index in evidence:
+        pair = (check_index, class_index)
+        if pair not in dropped:
+            log_p = log_prior + log_all - np.log(model.checks[check_index].table[:, class_index])
+            p = np.exp(log_p - log_p.max())
+            share = dict(group_chances(model, p / p.sum())).get(group, 0.0)
+            dropped[pair] = share < FRAGILE_BELOW
+        if dropped[pair]:
             fragile.append(check_index)
     return fragile
 

@@ -9,12 +9,23 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from fixbench.quantities import ReadingError, parse_quantity
+from fixbench.quantities import ReadingError, format_quantity, parse_quantity
 
 MAINS_TOLERANCE = 0.10  # IEC 60038 Table 1: +/-10 % at the supply terminals
 UNIVERSAL_LOW, UNIVERSAL_HIGH = 85.0, 265.0  # TI UCC28C4x design example
 UNIVERSAL_WORDS = {"universal", "100-240 v", "100-240v", "100-240", "85-265", "85-265 v", "90-264 v", "90-264"}
 RATING_KEYS = {"mains", "frequency", "output", "current", "bulk", "switching", "bench_mains"}
+# What any offline switch-mode supply fixbench models can have, whatever its family; a family may
+# describe less. Bulk capacitors of chargers and adapters up to 250 W run from a few uF to a few
+# hundred uF (1-3 uF per input watt); switching frequencies from tens of kHz to about 1 MHz
+# [practice]. The bounds are wide on purpose: they catch a slip of the prefix, not a design.
+BULK_RANGE_F = (1e-6, 10e-3)
+SWITCHING_RANGE_HZ = (5e3, 5e6)
+
+
+class RatingsOutOfReach(ReadingError):
+    """Ratings that read well but that a family's circuit cannot have (an output below what its
+    feedback reference can regulate): the message names the rating and the reason."""
 
 
 @dataclass(frozen=True)
@@ -45,8 +56,6 @@ class Ratings:
 
     def as_text(self) -> dict[str, str]:
         """The ratings as the text dict a case file holds (inverse of :func:`parse_ratings`)."""
-        from fixbench.quantities import format_quantity
-
         text = {
             "mains": "universal" if self.universal else format_quantity(self.bench_mains, "V"),
             "frequency": format_quantity(self.mains_hz, "Hz"),
@@ -63,8 +72,10 @@ class Ratings:
 
 
 def _value(ratings: dict[str, str], key: str, unit: str, default: str | None = None) -> float | None:
-    text = ratings.get(key, default)
+    text = ratings.get(key)
     if text is None or str(text).strip() == "":
+        text = default  # a blank optional rating is one not given
+    if text is None:
         return None
     try:
         measured = parse_quantity(str(text), unit)
@@ -96,6 +107,9 @@ def parse_ratings(ratings: dict[str, str]) -> Ratings:
             raise ReadingError(f"rating 'mains': {nominal:g} V is not a mains voltage (90 to 264 V, or 'universal')")
         design_low, design_high = nominal * (1 - MAINS_TOLERANCE), nominal * (1 + MAINS_TOLERANCE)
         bench = _value(ratings, "bench_mains", "V", f"{nominal} V")
+    if not UNIVERSAL_LOW <= bench <= UNIVERSAL_HIGH:
+        raise ReadingError(f"rating 'bench_mains': {bench:g} V is not a mains voltage "
+                           f"({UNIVERSAL_LOW:g} to {UNIVERSAL_HIGH:g} V)")
     hz_default = "60 Hz" if (not universal and design_high < 150) else "50 Hz"
     hz = _value(ratings, "frequency", "Hz", hz_default)
     if not 45 <= hz <= 65:
@@ -108,10 +122,19 @@ def parse_ratings(ratings: dict[str, str]) -> Ratings:
         raise ReadingError(f"rating 'current': {output_a:g} A is outside what fixbench models (0.05 to 20 A)")
     if output_v * output_a > 250:
         raise ReadingError("ratings: more than 250 W is outside what fixbench models")
+    bulk = _value(ratings, "bulk", "F")
+    if bulk is not None and not BULK_RANGE_F[0] <= bulk <= BULK_RANGE_F[1]:
+        raise ReadingError(f"rating 'bulk': {format_quantity(bulk, 'F')} is not the bulk capacitor of "
+                           f"an offline supply ({format_quantity(BULK_RANGE_F[0], 'F')} to "
+                           f"{format_quantity(BULK_RANGE_F[1], 'F')})")
+    switching = _value(ratings, "switching", "Hz")
+    if switching is not None and not SWITCHING_RANGE_HZ[0] <= switching <= SWITCHING_RANGE_HZ[1]:
+        raise ReadingError(f"rating 'switching': {format_quantity(switching, 'Hz')} is not the switching "
+                           f"frequency of an offline supply ({format_quantity(SWITCHING_RANGE_HZ[0], 'Hz')} "
+                           f"to {format_quantity(SWITCHING_RANGE_HZ[1], 'Hz')})")
     return Ratings(
         design_low=design_low, design_high=design_high, universal=universal, bench_mains=bench,
-        mains_hz=hz, output_v=output_v, output_a=output_a,
-        bulk_f=_value(ratings, "bulk", "F"), switching_hz=_value(ratings, "switching", "Hz"),
+        mains_hz=hz, output_v=output_v, output_a=output_a, bulk_f=bulk, switching_hz=switching,
     )
 
 

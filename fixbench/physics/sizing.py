@@ -11,7 +11,10 @@ from typing import Callable
 
 from fixbench.knowledge.design import Design
 from fixbench.physics.capacitors import E12, nearest_preferred
-from fixbench.physics.ratings import Ratings
+from fixbench.physics.ratings import Ratings, RatingsOutOfReach
+from fixbench.physics.semiconductors import TL431_VREF
+
+TL431_VREF_V = TL431_VREF["plain"].typical
 
 # Efficiency assumed when turning output watts into input watts [practice: small chargers 75-80 %,
 # laptop adapters 85-90 %].
@@ -83,8 +86,12 @@ def output_cap_voltage(ratings: Ratings, design: Design) -> float:
 
 def divider_upper(ratings: Ratings, design: Design) -> float:
     """Upper divider resistor for a TL431 with a 10 kohm lower resistor: R1 = R2 (Vo/Vref - 1)
-    [src: TI SLVS543, Vout = Vref (1 + R1/R2)]."""
-    return round(10e3 * (ratings.output_v / 2.495 - 1.0), -1)
+    [src: TI SLVS543, Vout = Vref (1 + R1/R2)]. No divider sets an output at or below Vref."""
+    if ratings.output_v <= TL431_VREF_V:
+        raise RatingsOutOfReach(f"rating 'output': {ratings.output_v:g} V is not above the {TL431_VREF_V} V "
+                                "reference of the TL431 that regulates this family's output, so no "
+                                "divider can set it")
+    return round(10e3 * (ratings.output_v / TL431_VREF_V - 1.0), -1)
 
 
 def base_bias_resistance(ratings: Ratings, design: Design) -> float:
@@ -117,7 +124,13 @@ def part_value(text: str | None, unit: str, ratings: Ratings, design: Design) ->
     if text is None:
         return None
     if text.startswith("rule:"):
-        return RULES[text.removeprefix("rule:")](ratings, design)
+        rule = text.removeprefix("rule:")
+        value = RULES[rule](ratings, design)
+        if not (math.isfinite(value) and value > 0):
+            # A rule outside the ratings it holds for (a zener below 0 V for a 1 V output).
+            raise RatingsOutOfReach(f"ratings: this family's circuit cannot be built for them (its "
+                                    f"{rule.replace('_', ' ')} rule gives {value:g} {unit})")
+        return value
     from fixbench.quantities import parse_quantity
 
     return parse_quantity(text, unit).value

@@ -46,8 +46,19 @@ def test_text_table_shows_units_and_bands(capsys):
 
 @pytest.mark.parametrize("args, message", [
     (["--family", "nonesuch"], "unknown supply family"),
+    (["--family", "pwm_flybak"], "did you mean: pwm_flyback?"),
     (["--family", "pwm_flyback", "--mains", "5 A"], "rating 'mains'"),
     (["--family", "pwm_flyback", "--output", "3,3"], "use a point"),
+    # Each of these was a traceback or an impossible table with exit 0.
+    (["--family", "pwm_flyback", "--output", "2V"], "2.495 V reference of the TL431"),
+    (["--family", "self_oscillating", "--output", "1V"], "zener voltage rule gives -0.1 V"),
+    (["--family", "pwm_flyback", "--frequency", " "], "--frequency is empty"),
+    (["--family", "pwm_flyback", "--mains", "universal", "--bench-mains", "4k7"], "rating 'bench_mains'"),
+    (["--family", "pwm_flyback", "--switching", "1Hz"], "rating 'switching'"),
+    (["--family", "pwm_flyback", "--switching", "100GHz"], "rating 'switching'"),
+    (["--family", "pwm_flyback", "--bulk", "1pF"], "rating 'bulk'"),
+    (["--family", "pwm_flyback", "--bulk", "10F"], "rating 'bulk'"),
+    (["--family", "pwm_flyback", "--output", "1e400V"], "too large a number"),
 ])
 def test_bad_arguments_exit_2_with_one_line(capsys, args, message):
     assert main(["expect", *args]) == 2
@@ -95,3 +106,10 @@ def test_bridge_check_tells_an_open_diode(capsys):
     assert main(["simulate", "--family", "pwm_flyback", "--fault", "BD1.open", "--exact", "--json"]) == 0
     readings = {r["check"]: r["value"] for r in json.loads(capsys.readouterr().out)["readings"]}
     assert readings["bridge_diode_test"] == "OL"
+
+
+def test_an_exponent_with_a_prefix_reads_as_written(capsys):
+    # "5e3mV" was a ValueError from float("5e3e-3").
+    assert main(["expect", "--family", "pwm_flyback", "--output", "5e3mV", "--json"]) == 0
+    rows = json.loads(capsys.readouterr().out)
+    assert next(r for r in rows if r["check"] == "output_plug")["nominal"] == pytest.approx(5.0)

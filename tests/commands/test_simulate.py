@@ -27,3 +27,9 @@ def test_open_start_resistor_unit_reads_zero_vcc_and_a_full_bulk_rail(capsys):
 def test_unknown_fault_is_refused(capsys):
     assert main(["simulate", "--family", "pwm_flyback", "--fault", "Z9.melted"]) == 2
     assert "unknown fault 'Z9.melted'" in capsys.readouterr().err
+
+
+def test_an_unknown_fault_names_the_near_ones_and_where_to_list_them(capsys):
+    assert main(["simulate", "--family", "pwm_flyback", "--fault", "C2"]) == 2
+    err = capsys.readouterr().err
+    assert "did you mean: C2.dried" in err and "fixbench families --faults pwm_flyback" in err

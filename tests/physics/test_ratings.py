@@ -73,6 +73,12 @@ def test_optional_ratings_and_text_round_trip():
         ({"switching": "65 kV"}, "switching"),
         ({"output": ""}, "output"),
         ({"colour": "black"}, "colour"),
+        ({"bench_mains": "4k7"}, "bench_mains"),
+        ({"bench_mains": "12 V"}, "bench_mains"),
+        ({"bulk": "1 pF"}, "bulk"),
+        ({"bulk": "10 F"}, "bulk"),
+        ({"switching": "1 Hz"}, "switching"),
+        ({"switching": "10 GHz"}, "switching"),
     ],
 )
 def test_bad_rating_is_refused_naming_it(change, named):
@@ -99,3 +105,10 @@ def test_label_reads_as_a_person_writes_it_without_the_bench_mains():
                            "bench_mains": "230 V"})
     assert text == "input 100-240 V 50 Hz, output 12 V 2 A"
     assert describe_label({"mains": "230 V", "output": "5 V", "current": "1 A"}) == "input 230 V, output 5 V 1 A"
+
+
+@pytest.mark.parametrize("key", ["frequency", "bench_mains", "bulk", "switching"])
+def test_a_blank_optional_rating_is_one_not_given(key):
+    # {"frequency": " "} was a TypeError comparing None with 45.
+    assert parse_ratings(dict(CHARGER, **{key: " "})) == parse_ratings(
+        {k: v for k, v in CHARGER.items() if k != key})
