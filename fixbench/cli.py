@@ -24,7 +24,9 @@ COMMANDS: dict[str, str] = {
     "restore": "restore",
     "demo-db": "demo_db",
     "export": "export",
+    "cases": "cases",
 }
+DB_HELP = "database URL or SQLite file (default: the user data folder; or set FIXBENCH_DB)"
 
 
 def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
@@ -33,8 +35,7 @@ def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
         description="Guided fault-finding for offline switch-mode supplies. "
         "Run without a command to open the window.",
     )
-    parser.add_argument("--db", help="database URL or SQLite file (default: the user data folder; "
-                        "or set FIXBENCH_DB)")
+    parser.add_argument("--db", help=DB_HELP)
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     wanted = _command_word(argv)
     for name, module_name in COMMANDS.items():
@@ -43,6 +44,9 @@ def _build_parser(argv: list[str]) -> argparse.ArgumentParser:
             module = importlib.import_module(f"fixbench.commands.{module_name}")
             cmd = sub.add_parser(name, help=module.HELP, description=module.HELP)
             module.add_arguments(cmd)
+            # Also after the command (`fixbench backup --db shop.sqlite`); SUPPRESS leaves the
+            # value given before the command in place when none is given here.
+            cmd.add_argument("--db", default=argparse.SUPPRESS, help=DB_HELP)
             cmd.set_defaults(_module=module)
         else:
             sub.add_parser(name, help=_help_line(module_name))
@@ -69,6 +73,16 @@ def _help_line(module_name: str) -> str:
         return "(not available in this build)"
 
 
+def _store_error() -> type[Exception]:
+    """The store's error class when a command has loaded the store, else one nothing raises."""
+    module = sys.modules.get("fixbench.store.errors")
+    return module.StoreError if module is not None else _NeverRaised
+
+
+class _NeverRaised(Exception):
+    pass
+
+
 def main(argv: list[str] | None = None) -> int:
     argv = list(sys.argv[1:] if argv is None else argv)
     parser = _build_parser(argv)
@@ -80,6 +94,10 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return int(args._module.run(args) or 0)
     except UsageError as err:
+        print(f"fixbench {args.command}: {err}", file=sys.stderr)
+        return 2
+    except _store_error() as err:
+        # The store's own errors are ones a person can fix (see fixbench.store.errors).
         print(f"fixbench {args.command}: {err}", file=sys.stderr)
         return 2
     except BrokenPipeError:

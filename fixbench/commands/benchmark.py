@@ -19,6 +19,8 @@ def add_arguments(parser) -> None:
 
 
 def run(args) -> int:
+    if args.cases < 1:
+        raise UsageError("--cases must be at least 1")
     if args.part == "engine":
         from fixbench.benchmarks.engine_figures import print_report, run_benchmark
 

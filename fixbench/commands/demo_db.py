@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
+from fixbench.commands._output import print_json
 from fixbench.commands.usage import UsageError
 
 HELP = "build the demo shop database (fictional shop, about two years of cases) at PATH"
@@ -16,6 +17,7 @@ def add_arguments(parser) -> None:
     parser.add_argument("--seed", type=int, default=1, help="which demo history (default 1)")
     parser.add_argument("--days", type=int, default=SHOP_DAYS,
                         help=f"days of history up to the shop's last day (default {SHOP_DAYS})")
+    parser.add_argument("--json", action="store_true", help="print the result as JSON")
 
 
 def run(args) -> int:
@@ -43,6 +45,10 @@ def run(args) -> int:
         copy_database(building, path)
     finally:
         _remove(building)
+    if args.json:
+        print_json({"path": str(path), "cases": count, "seed": args.seed, "days": args.days,
+                    "content_digest": digest})
+        return 0
     print(f"built the demo shop in {path}: {count} cases (seed {args.seed}, {args.days} days)")
     print(f"content digest: {digest}")
     return 0

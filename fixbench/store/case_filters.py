@@ -15,7 +15,7 @@ from dataclasses import asdict, dataclass, fields, replace
 from datetime import date, datetime, time, timedelta
 from typing import TextIO
 
-from sqlalchemy import and_, func, or_, select, true
+from sqlalchemy import and_, false, func, or_, select, true
 from sqlalchemy.sql.elements import ColumnElement
 
 from fixbench.store.case_list import CaseRow, rows_of_page
@@ -113,6 +113,11 @@ def _text_matches(words: str) -> ColumnElement[bool]:
     # Every word must appear somewhere in the case's text fields or its device's names.
     clauses = []
     for word in words.split():
+        if "\x00" in word:
+            # No kept text holds U+0000 (checked_text refuses it), so the word matches nothing;
+            # PostgreSQL would refuse the pattern itself.
+            clauses.append(false())
+            continue
         pattern = "%" + _escaped(word.lower()) + "%"
 
         def like(column, pattern=pattern):

@@ -109,3 +109,14 @@ def open_cases(store: Store, offset: int = 0, limit: int = 200) -> list[OpenCase
              .order_by(Case.opened_at.desc(), Case.id.desc()).offset(offset).limit(limit))
     with store.read_connection() as connection:
         return [OpenCaseRow(*row) for row in connection.execute(query)]
+
+
+def tickets_like(store: Store, ticket: str, limit: int = 2000) -> list[str]:
+    """Tickets that share the first half of ``ticket`` (case-blind), for "did you mean" when a
+    ticket is not found; the database narrows them by prefix, so a large shop sends few."""
+    prefix = ticket[: max(1, len(ticket) // 2)].lower()
+    pattern = prefix.replace("\\", "\\\\").replace("%", "\\%").replace("_", "\\_") + "%"
+    query = (select(Case.ticket_ref).where(func.lower(Case.ticket_ref).like(pattern, escape="\\"))
+             .order_by(Case.ticket_ref).limit(limit))
+    with store.read_connection() as connection:
+        return list(connection.scalars(query))

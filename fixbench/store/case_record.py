@@ -22,7 +22,7 @@ from sqlalchemy.orm import selectinload
 
 from fixbench.store.cases import RankedSuspect
 from fixbench.store.database import Store
-from fixbench.store.errors import StoreInputError
+from fixbench.store.errors import CaseNotFound
 from fixbench.store.models import (Amendment, Case, CautionAcknowledgement, ReadingRow,
                                    RepairAction, SkippedCheck, Verification, WithdrawnReading)
 
@@ -133,7 +133,7 @@ class CaseRecord:
 
 def load_case_record(store: Store, case_id: int | None = None, *,
                      ticket: str | None = None) -> CaseRecord:
-    """The case with this id (or ticket reference), whole; StoreInputError if there is none."""
+    """The case with this id (or ticket reference), whole; CaseNotFound (a StoreInputError) if there is none."""
     if (case_id is None) == (ticket is None):
         raise ValueError("give a case id or a ticket reference")
     with store.reading() as session:
@@ -142,7 +142,7 @@ def load_case_record(store: Store, case_id: int | None = None, *,
         else:
             case = session.scalar(select(Case).where(Case.ticket_ref == ticket))
         if case is None:
-            raise StoreInputError(f"there is no case {case_id if ticket is None else ticket}")
+            raise CaseNotFound(f"there is no case {case_id if ticket is None else ticket}")
         return _record(session, case)
 
 

@@ -14,18 +14,21 @@ isolation / Savepoints / Transactional DDL" in the SQLite dialect docs).
 from __future__ import annotations
 
 import sqlite3
+import stat
 from collections.abc import Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 from pathlib import Path
 
 from sqlalchemy import Engine, create_engine, event
-from sqlalchemy.exc import DatabaseError, OperationalError
+from sqlalchemy.engine import make_url
+from sqlalchemy.exc import ArgumentError, DatabaseError, NoSuchModuleError, OperationalError
 from sqlalchemy.orm import Session, sessionmaker
 
-from fixbench.store.errors import StoreFileError
-from fixbench.store.health import check_sqlite_file
-from fixbench.store.location import newest_backup, resolve_url, sqlite_path
+from fixbench.store.errors import StoreError, StoreFileError, StoreLocationError
+from fixbench.store.health import check_sqlite_file, newest_good_backup
+from fixbench.store.location import (DEFAULT_FILE_NAME, create_private_file, make_private_folder,
+                                     resolve_url, sqlite_path)
 
 BUSY_TIMEOUT_MS = 30_000
 READ_ONLY_OPTION = "fixbench_read_only"
@@ -70,13 +73,18 @@ class Store:
         self.engine.dispose()
 
 
-def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True) -> Store:
-    """Open (creating if needed) the shop database, refusing damaged or foreign files untouched."""
+def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True,
+               create: bool = True) -> Store:
+    """Open the shop database (creating it if ``create``), refusing damaged, foreign or newer files
+    untouched; every problem a person can fix is a :class:`StoreError` with a one-line message."""
     url = resolve_url(url_or_path)
     path = sqlite_path(url)
     if path is not None:
+        _check_place(path, create)
         check_sqlite_file(path)
-        path.parent.mkdir(parents=True, exist_ok=True)
+        if not path.exists():
+            make_private_folder(path.parent)
+            _create(path)
     engine = _make_engine(url)
     store = Store(engine=engine, sessions=sessionmaker(engine, expire_on_commit=False), path=path)
     if migrate:
@@ -85,12 +93,58 @@ def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True) -
 
         try:
             upgrade_to_head(store)
+        except StoreError:
+            engine.dispose()
+            raise
         except (DatabaseError, OperationalError) as err:
             engine.dispose()
             if path is not None and _is_damage(err):
-                raise StoreFileError(path, "is damaged", newest_backup(path)) from err
+                raise StoreFileError(path, "is damaged", newest_good_backup(path)) from err
+            if path is None and isinstance(err, OperationalError):
+                raise StoreLocationError(f"cannot reach the database server {_shown(url)}: "
+                                         f"{_first_line(err)}") from err
             raise
     return store
+
+
+def _check_place(path: Path, create: bool) -> None:
+    """Refuse, before anything is created, a name that cannot be a shop database file."""
+    try:
+        mode = path.stat().st_mode
+    except FileNotFoundError:
+        if not create:
+            raise StoreLocationError(f"there is no shop database at {path}; check --db or "
+                                     "FIXBENCH_DB") from None
+        return
+    except OSError as err:
+        raise StoreLocationError(f"{path}: {err.strerror or err}") from None
+    if stat.S_ISDIR(mode):
+        raise StoreLocationError(f"{path} is a folder; name the database file, such as "
+                                 f"{path / DEFAULT_FILE_NAME}")
+    if not stat.S_ISREG(mode):
+        raise StoreLocationError(f"{path} is not a regular file (a device or a pipe); name a "
+                                 "database file")
+
+
+def _create(path: Path) -> None:
+    try:
+        create_private_file(path)
+    except FileExistsError:
+        pass  # another bench created it a moment ago
+    except OSError as err:
+        raise StoreLocationError(f"cannot create {path}: {err.strerror or err}") from None
+
+
+def _shown(url: str) -> str:
+    try:
+        return make_url(url).render_as_string(hide_password=True)
+    except Exception:  # noqa: BLE001 - only for a message; the URL was refused already
+        return "(the URL given)"
+
+
+def _first_line(err: Exception) -> str:
+    text = str(getattr(err, "orig", None) or err).strip()
+    return text.splitlines()[0] if text else type(err).__name__
 
 
 def _is_damage(err: Exception) -> bool:
@@ -99,9 +153,21 @@ def _is_damage(err: Exception) -> bool:
 
 
 def _make_engine(url: str) -> Engine:
-    if not url.startswith("sqlite"):
-        return create_engine(url, pool_pre_ping=True)
-    engine = create_engine(url, connect_args={"timeout": BUSY_TIMEOUT_MS / 1000})
+    try:
+        parsed = make_url(url)
+        if not url.startswith("sqlite"):
+            return create_engine(parsed, pool_pre_ping=True)
+        engine = create_engine(parsed, connect_args={"timeout": BUSY_TIMEOUT_MS / 1000})
+    except NoSuchModuleError as err:
+        raise StoreLocationError(f"cannot use {_shown(url)}: no such database kind or driver "
+                                 f"({_first_line(err)}); fixbench works with SQLite files and "
+                                 "postgresql+psycopg:// servers") from None
+    except ImportError as err:
+        raise StoreLocationError(f"cannot use {_shown(url)}: its driver is not installed "
+                                 f"({err.name or err})") from None
+    except (ArgumentError, ValueError) as err:
+        raise StoreLocationError(f"the database URL does not parse ({_first_line(err)}); give a "
+                                 "file name or a URL such as postgresql+psycopg://user@host/shop") from None
     install_sqlite_listeners(engine)
     return engine
 

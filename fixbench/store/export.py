@@ -6,13 +6,16 @@ tab/CR) get a leading apostrophe (OWASP, "CSV Injection").
 
 The case JSON holds what ``fixbench diagnose`` reads (``family``, ``ratings`` and the ``readings``
 in the order taken, each as the check id and the text typed), so a past case can be re-run;
-the rest of the record travels under ``"record"``, which diagnose ignores.
+the rest of the record travels under ``"record"``, which diagnose ignores. It is what the bench
+needs and anyone at the bench may take it; who the customer is travels only when the owner asks
+with the passphrase, since customers' details are personal data kept in the shop.
 """
 
 from __future__ import annotations
 
 import csv
 import json
+from collections.abc import Iterator
 from datetime import datetime
 from typing import Any, TextIO
 
@@ -46,15 +49,41 @@ def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datet
                      passphrase: str | None) -> int:
     """Write cases opened in [since, until) to ``out`` as CSV; returns the number of cases."""
     require_owner(store, passphrase)
+    where, order = _period(since, until)
+    return write_cases_csv(store, out, where=where, order=order)
+
+
+def export_cases_rows(store: Store, *, since: datetime, until: datetime,
+                      passphrase: str | None) -> list[dict[str, Any]]:
+    """The cases of :func:`export_cases_csv` as one dict per case (the CSV's columns), for JSON."""
+    require_owner(store, passphrase)
+    where, order = _period(since, until)
+    return [{k: _iso(v) if isinstance(v, datetime) else v for k, v in zip(CSV_COLUMNS, row)}
+            for row in case_rows(store, where=where, order=order)]
+
+
+def _period(since: datetime, until: datetime):
     if until <= since:
         raise StoreInputError("the end of the period must come after its start")
-    return write_cases_csv(store, out, where=and_(Case.opened_at >= since, Case.opened_at < until),
-                           order=(Case.opened_at.asc(), Case.id.asc()))
+    return (and_(Case.opened_at >= since, Case.opened_at < until),
+            (Case.opened_at.asc(), Case.id.asc()))
 
 
 def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
     """The one CSV writer of cases: the cases matching ``where`` in ``order``, with their parts
     cost and reading count. Callers check the owner's passphrase first."""
+    writer = csv.writer(out)
+    writer.writerow(CSV_COLUMNS)
+    count = 0
+    for row in case_rows(store, where=where, order=order):
+        writer.writerow([_cell(v) for v in row])
+        count += 1
+    return count
+
+
+def case_rows(store: Store, *, where, order) -> Iterator[list[Any]]:
+    """The one query of exported cases: one list per case in :data:`CSV_COLUMNS` order, the parts
+    cost in the shop's money ("12.50"). Callers check the owner first."""
     cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
             .where(RepairAction.case_id == Case.id).scalar_subquery())
     # Readings taken back with undo are kept in the record but do not count as readings.
@@ -70,25 +99,27 @@ def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
              .join(Technician, Technician.id == Case.technician_id)
              .where(where)
              .order_by(*order))
-    writer = csv.writer(out)
-    writer.writerow(CSV_COLUMNS)
-    count = 0
     with store.read_connection() as connection:
-        for row in connection.execution_options(yield_per=1000).execute(query):
+        for row in connection.execute(query, execution_options={"yield_per": 1000}):
             *head, cents, n_readings = row
-            writer.writerow([_cell(v) for v in head] + [f"{cents / 100:.2f}", n_readings])
-            count += 1
-    return count
+            yield [*head, f"{cents / 100:.2f}", n_readings]
 
 
-def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
-    """One case in the form ``fixbench diagnose`` reads, plus its record."""
+def case_as_json(store: Store, ticket_or_id: str | int, *,
+                 owner_passphrase: str | None = None) -> dict[str, Any]:
+    """One case in the form ``fixbench diagnose`` reads, plus its record.
+
+    The record is the bench's: the unit, the readings, the parts and the results. Who the customer
+    is stays in the shop unless the owner asks for it with the passphrase (``owner_passphrase``):
+    then the record carries ``customer`` too."""
+    if owner_passphrase is not None:
+        require_owner(store, owner_passphrase)
     if isinstance(ticket_or_id, int):
         case = load_case_record(store, ticket_or_id)
     else:
         case = load_case_record(store, ticket=ticket_or_id)
     standing = case.standing_readings
-    return {
+    shown = {
         "format": CASE_JSON_FORMAT,
         "version": CASE_JSON_VERSION,
         "family": case.family_id,
@@ -115,11 +146,15 @@ def case_as_json(store: Store, ticket_or_id: str | int) -> dict[str, Any]:
                              for v in case.verifications],
         },
     }
+    if owner_passphrase is not None:
+        shown["record"]["customer"] = {"reference": case.customer_ref}
+    return shown
 
 
 def _iso(moment: datetime | None) -> str | None:
     return None if moment is None else moment.isoformat(timespec="seconds")
 
 
-def dump_case_json(store: Store, ticket_or_id: str | int) -> str:
-    return json.dumps(case_as_json(store, ticket_or_id), ensure_ascii=False, indent=2)
+def dump_case_json(store: Store, ticket_or_id: str | int, *, owner_passphrase: str | None = None) -> str:
+    return json.dumps(case_as_json(store, ticket_or_id, owner_passphrase=owner_passphrase),
+                      ensure_ascii=False, indent=2)
