@@ -179,6 +179,14 @@ def move_case(store: Store, case_id: int, status: str) -> None:
         case.status = status
 
 
+def correct_ratings(store: Store, case_id: int, ratings: Mapping[str, str]) -> None:
+    """Put right the label ratings of an open case (typed wrong at intake); a closed case's are
+    changed by an amendment instead."""
+    with store.session() as session:
+        case = case_for_writing(session, case_id)
+        case.ratings = {checked_text(k, "rating"): checked_text(v, "rating") for k, v in ratings.items()}
+
+
 def add_repair_action(store: Store, case_id: int, *, part_id: str, action: str,
                       fault_id: str | None = None, parts_cost_cents: int = 0, note: str = "",
                       value_fitted: str | None = None, test_passed: bool | None = None,

@@ -83,13 +83,27 @@ def case_view(record: CaseRecord, family: Family) -> CaseInView:
                       record.technician_id)
 
 
+class RatingsToCorrect(ReadingError):
+    """A kept case whose label ratings the family cannot describe (kept before they were checked
+    against it, or by an older fixbench): it opens once they are put right."""
+
+    def __init__(self, case_id: int, ticket: str, ratings: dict[str, str], problem: str):
+        self.case_id, self.ticket, self.ratings, self.problem = case_id, ticket, ratings, problem
+        super().__init__(f"case {ticket} cannot be resumed as kept: {problem}. Put its label ratings "
+                         "right to open it")
+
+
 def resume_case(store: Store, knowledge: KnowledgeBase, case_id: int) -> Loaded:
     """The case where it was left: its standing readings replayed, its skips, repairs and
-    verifications; a reading this build can no longer take is named in the notice."""
+    verifications; a reading this build can no longer take is named in the notice. Ratings the
+    family cannot describe raise :class:`RatingsToCorrect`."""
     record = load_case_record(store, case_id)
     family = knowledge.family(record.family_id)
-    start = start_diagnosis(family, parse_ratings(record.ratings),
-                            priors.confirmed_fault_counts(store, family.id))
+    try:
+        start = start_diagnosis(family, parse_ratings(record.ratings),
+                                priors.confirmed_fault_counts(store, family.id))
+    except ReadingError as err:
+        raise RatingsToCorrect(record.id, record.ticket, dict(record.ratings), str(err)) from None
     replayed = replay_readings(start, ((r.check_id, r.typed) for r in record.standing_readings))
     state = replayed.state
     for skipped in record.skipped:
@@ -101,6 +115,16 @@ def resume_case(store: Store, knowledge: KnowledgeBase, case_id: int) -> Loaded:
                    f"{', '.join(r.typed for r in replayed.refused)}.")
     return Loaded(case_view(record, family), warm(state), record.repairs, record.verifications,
                   notice)
+
+
+def correct_ratings(store: Store, knowledge: KnowledgeBase, case_id: int,
+                    ratings: dict[str, str]) -> Loaded:
+    """Keep corrected label ratings for an open case, once the family can describe them, and
+    resume it."""
+    record = load_case_record(store, case_id)
+    start_diagnosis(knowledge.family(record.family_id), parse_ratings(ratings))  # ReadingError if not
+    cases.correct_ratings(store, case_id, ratings)
+    return resume_case(store, knowledge, case_id)
 
 
 def page_for(loaded: Loaded) -> str:

@@ -83,7 +83,10 @@ def open_new_case(store: Store, knowledge: KnowledgeBase, technician_id: int,
         raise TicketInUse(f"ticket {form.ticket.strip()} is already a case: open it from the "
                           "list, or use another")
     family = knowledge.family(form.family_id)
-    ratings = parse_ratings(form.ratings)
+    # The engine is started before anything is kept: ratings the family cannot describe (an
+    # output below its reference) are refused here, not kept as a case that never opens.
+    state = start_diagnosis(family, parse_ratings(form.ratings),
+                            priors.confirmed_fault_counts(store, family.id))
     device_id = find_device(store, form.make, form.model, form.serial)
     if device_id is None:
         device_id = people.add_device(store, make=form.make.strip(), model=form.model.strip(),
@@ -92,7 +95,6 @@ def open_new_case(store: Store, knowledge: KnowledgeBase, technician_id: int,
     case_id = cases.open_case(store, ticket_ref=form.ticket.strip(), device_id=device_id,
                               technician_id=technician_id, family_id=family.id,
                               ratings=form.ratings, notes=form.notes)
-    state = start_diagnosis(family, ratings, priors.confirmed_fault_counts(store, family.id))
     for check_id in form.symptoms:
         state = warm(state.with_reading(check_id, "yes"))
         keep(store, case_id, state.readings[-1], state)

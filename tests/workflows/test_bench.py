@@ -67,3 +67,31 @@ def test_cautions_are_acknowledged_by_whoever_opened_the_case_when_nobody_is_cho
     acknowledged = bench.acknowledge(store, case, None)
     assert acknowledged.cautions_acknowledged
     assert bench.resume_case(store, KB, case.id).case.cautions_acknowledged
+
+
+def test_a_kept_case_whose_ratings_the_family_cannot_describe_opens_once_put_right(tmp_path, knowledge):
+    # Such a case (kept by an older fixbench, which saved before checking) raised "band inverted"
+    # on every resume: now it names the problem, and opens once its ratings are corrected.
+    from fixbench.store import open_store
+    from fixbench.store.cases import open_case
+    from fixbench.store.people import add_device, add_technician
+    from fixbench.quantities import ReadingError
+    from fixbench.workflows.bench import RatingsToCorrect, correct_ratings, resume_case
+
+    store = open_store(tmp_path / "shop.sqlite")
+    try:
+        tech = add_technician(store, "Rowan Vell")
+        kept = {"mains": "230 V", "output": "2 V", "current": "1 A"}
+        device = add_device(store, make="Quillon", model="QX-9", kind="phone charger", label_ratings=kept)
+        case_id = open_case(store, ticket_ref="BW-7", device_id=device, technician_id=tech,
+                            family_id="pwm_flyback", ratings=kept)
+        with pytest.raises(RatingsToCorrect) as refused:
+            resume_case(store, knowledge, case_id)
+        assert refused.value.ratings == kept and "reference of the TL431" in refused.value.problem
+        with pytest.raises(ReadingError):
+            correct_ratings(store, knowledge, case_id, dict(kept, output="1.5 V"))
+        loaded = correct_ratings(store, knowledge, case_id, dict(kept, output="5 V"))
+        assert loaded.case.ratings["output"] == "5 V" and loaded.state.next_check is not None
+        assert resume_case(store, knowledge, case_id).case.ratings["output"] == "5 V"
+    finally:
+        store.close()

@@ -52,3 +52,23 @@ def test_the_bench_mains_is_kept_only_for_a_universal_unit():
     assert "bench_mains" not in fixed
     with pytest.raises(ReadingError, match="250 W"):
         label_ratings({"mains": "230 V", "output": "60 V", "current": "5 A"})
+
+
+def test_ratings_the_family_cannot_describe_are_refused_before_anything_is_kept(tmp_path, knowledge):
+    # In the window a pwm_flyback case at 2 V was kept first, then the engine failed ("band
+    # inverted"), and the case could never be resumed.
+    from fixbench.store import open_store
+    from fixbench.store.case_list import case_count
+    from fixbench.store.people import add_technician
+    from fixbench.workflows.intake import IntakeForm, open_new_case
+
+    store = open_store(tmp_path / "shop.sqlite")
+    try:
+        tech = add_technician(store, "Rowan Vell")
+        form = IntakeForm("BW-2", "Quillon", "QX-9", "", "phone charger", "pwm_flyback",
+                          {"mains": "230 V", "output": "2 V", "current": "1 A"}, ("symptom_dead",))
+        with pytest.raises(ReadingError, match="reference of the TL431"):
+            open_new_case(store, knowledge, tech, form)
+        assert case_count(store) == 0
+    finally:
+        store.close()

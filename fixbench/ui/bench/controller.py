@@ -48,6 +48,7 @@ class BenchController(QObject):
     cases_changed = Signal()
     failed = Signal(str)  # a message for the person: the store refused, the disk is full...
     ticket_refused = Signal(str)  # intake's ticket is already a case's: shown beside the field
+    ratings_to_correct = Signal(object)  # bench.RatingsToCorrect: a kept case to put right first
     busy_changed = Signal(bool)
 
     def __init__(self, context: AppContext, parent: QObject | None = None) -> None:
@@ -82,6 +83,9 @@ class BenchController(QObject):
         def failed(err: Exception) -> None:
             if isinstance(err, TicketInUse):
                 self.ticket_refused.emit(str(err))
+            elif isinstance(err, bench.RatingsToCorrect):
+                self.failed.emit(bench.person_message(err))
+                self.ratings_to_correct.emit(err)
             else:
                 self.failed.emit(bench.person_message(err))
             self._next()
@@ -116,6 +120,10 @@ class BenchController(QObject):
     def resume(self, case_id: int) -> None:
         store, knowledge = self.context.store, self.context.knowledge
         self._queue(lambda: bench.resume_case(store, knowledge, case_id), self._loaded)
+
+    def correct_ratings(self, case_id: int, ratings: dict[str, str]) -> None:
+        store, knowledge = self.context.store, self.context.knowledge
+        self._queue(lambda: bench.correct_ratings(store, knowledge, case_id, ratings), self._loaded)
 
     def _loaded(self, loaded: bench.Loaded) -> None:
         self.view = BenchView(case=loaded.case, state=loaded.state, repairs=loaded.repairs,

@@ -35,7 +35,7 @@ RATING_FIELDS = (
     ("current", "Output current", "A", "2 A", True),
     ("bulk", "Bulk capacitor (if read)", "F", "22 uF", False),
 )
-_RATING_IN_MESSAGE = re.compile(r"rating '(\w+)'")
+RATING_IN_MESSAGE = re.compile(r"rating '(\w+)'")
 
 
 def _required(what: str):
@@ -46,7 +46,7 @@ def _required(what: str):
     return check
 
 
-def _rating_check(key: str, required: bool):
+def rating_check(key: str, required: bool):
     def check(text: str) -> str:
         if not text.strip():
             if required:
@@ -70,7 +70,7 @@ class IntakePanel(QWidget):
         self.family.chosen.connect(self._family_chosen)
         self.ratings: dict[str, CheckedField] = {}
         for key, _label, _unit, placeholder, required in RATING_FIELDS:
-            self.ratings[key] = CheckedField(placeholder, _rating_check(key, required))
+            self.ratings[key] = CheckedField(placeholder, rating_check(key, required))
         self.notes = QLineEdit()
         self.notes.setPlaceholderText("what the customer said, in their words")
         self.symptom_box = QGroupBox("Symptoms reported or seen (tick what applies; the rest is asked later)")
@@ -254,7 +254,7 @@ class IntakePanel(QWidget):
             try:
                 ratings = label_ratings({k: f.text() for k, f in self.ratings.items()})
             except ReadingError as err:
-                match = _RATING_IN_MESSAGE.search(str(err))
+                match = RATING_IN_MESSAGE.search(str(err))
                 key = match.group(1) if match and match.group(1) in self.ratings else "current"
                 self.ratings[key].show_message(str(err).split(": ", 1)[-1])
                 ok = False

@@ -71,10 +71,18 @@ class BenchScreen(QWidget):
         c.view_changed.connect(self._show_view)
         c.cases_changed.connect(self.panels["cases"].refresh)
         c.failed.connect(lambda text: self._status(f"\u26a0 {text}", error=True))
+        c.ratings_to_correct.connect(self._correct_ratings)
         c.busy_changed.connect(lambda busy: self.busy.setText("saving\u2026" if busy else "all steps saved"))
         self.panels["guided"].card.field.escaped.connect(self._escape_from_step)
         self.panels["cases"].refresh()
         self.show_page("cases")
+
+    def _correct_ratings(self, kept) -> None:
+        from fixbench.ui.bench.ratings_dialog import RatingsDialog
+
+        dialog = RatingsDialog(kept.ticket, kept.ratings, kept.problem, self)
+        if dialog.exec() == RatingsDialog.DialogCode.Accepted:
+            self.controller.correct_ratings(kept.case_id, dialog.ratings)
 
     # --- pages ---------------------------------------------------------------------------------
 

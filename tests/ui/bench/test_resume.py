@@ -62,3 +62,50 @@ def test_case_left_before_cautions_asks_for_them_again(qtbot, window, bench, sto
     qtbot.keyClick(bench.panels["cautions"].confirm, Qt.Key.Key_Return)
     assert bench.page == "cautions"
     assert "Tick the box first" in bench.panels["cautions"].message.text()
+
+
+def test_ratings_the_family_cannot_describe_keep_no_case_and_say_why(qtbot, window, bench, store):
+    # A pwm_flyback unit at 2 V used to be kept first, then fail in the engine ("band inverted").
+    intake = fill_intake(qtbot, bench, ticket="BW-3003", make="Quillon", model="QX-9",
+                         family="pwm_flyback", ratings={"mains": "230 V", "output": "2 V", "current": "1 A"})
+    open_intake(qtbot, bench, intake)
+    assert bench.page == "intake"
+    assert "reference of the TL431" in bench.status.text()
+    assert bench.panels["cases"].model.rowCount() == 0
+
+
+def test_a_kept_case_that_cannot_be_resumed_asks_for_its_ratings_and_opens(qtbot, window, bench, store,
+                                                                          tmp_path):
+    from PySide6.QtCore import QTimer
+    from PySide6.QtWidgets import QApplication
+
+    from fixbench.store.cases import open_case
+    from fixbench.store.people import add_device
+    from fixbench.ui.bench.ratings_dialog import RatingsDialog
+
+    kept = {"mains": "230 V", "output": "2 V", "current": "1 A"}
+    device = add_device(store, make="Quillon", model="QX-9", kind="phone charger", label_ratings=kept)
+    open_case(store, ticket_ref="BW-3004", device_id=device, technician_id=1, family_id="pwm_flyback",
+              ratings=kept)
+    bench.panels["cases"].refresh()
+    seen = {}
+
+    def answer():
+        dialog = QApplication.activeModalWidget()
+        if not isinstance(dialog, RatingsDialog):  # the resume runs off the GUI thread first
+            QTimer.singleShot(50, answer)
+            return
+        dialog.resize(520, 360)
+        seen["problem"] = dialog.problem.text()
+        seen["output"] = dialog.fields["output"].text()
+        shoot(dialog, tmp_path, "ratings-dialog")
+        dialog.fields["output"].set_text("5 V")
+        dialog._accept()
+
+    QTimer.singleShot(50, answer)
+    qtbot.keyClick(bench.panels["cases"].table, Qt.Key.Key_Return)
+    qtbot.waitUntil(lambda: "output" in seen, timeout=5000)
+    settle(qtbot, bench)
+    assert seen["output"] == "2 V" and "reference of the TL431" in seen["problem"]
+    assert bench.page == "cautions"
+    assert bench.controller.view.case.ratings["output"] == "5 V"
