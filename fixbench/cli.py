@@ -73,6 +73,12 @@ def _help_line(module_name: str) -> str:
         return "(not available in this build)"
 
 
+def one_line(text: str) -> str:
+    """The message on one line: text quoted from a file or an option may hold line breaks or other
+    control characters (a NEL from Latin-1 bytes, a NUL), shown as escapes instead."""
+    return "".join(ch if ch.isprintable() else ch.encode("unicode_escape").decode("ascii") for ch in text)
+
+
 def _store_error() -> type[Exception]:
     """The store's error class when a command has loaded the store, else one nothing raises."""
     module = sys.modules.get("fixbench.store.errors")
@@ -94,11 +100,11 @@ def main(argv: list[str] | None = None) -> int:
     try:
         return int(args._module.run(args) or 0)
     except UsageError as err:
-        print(f"fixbench {args.command}: {err}", file=sys.stderr)
+        print(f"fixbench {args.command}: {one_line(str(err))}", file=sys.stderr)
         return 2
     except _store_error() as err:
         # The store's own errors are ones a person can fix (see fixbench.store.errors).
-        print(f"fixbench {args.command}: {err}", file=sys.stderr)
+        print(f"fixbench {args.command}: {one_line(str(err))}", file=sys.stderr)
         return 2
     except BrokenPipeError:
         # Output piped into a command that stopped reading (head, less): not an error of ours.

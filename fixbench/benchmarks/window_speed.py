@@ -1,10 +1,11 @@
 """`fixbench benchmark ui`: how fast the window appears and how fast the bench answers a reading.
 
 - Start-up: each run is a fresh ``python -c`` subprocess, timed by this process from launch to the
-  line the child prints when its first window has been shown (on the first turn of its event
-  loop). fixbench's window is compared with a bare PySide6 window started the same way; runs
+  lines the child prints when its window is first shown (with its "opening the shop" line) and
+  when it is usable (the shop opened off the GUI thread and the bench drawn in the window).
+  fixbench's usable window is compared with a bare PySide6 window shown the same way; runs
   alternate between the two so a busy machine slows both alike. Medians are reported; the target is
-  a ratio of at most 2.0.
+  a ratio of at most 2.0, usable window to bare window.
 - Reading update: the real main window, offscreen, on a fresh temporary database; a simulated unit
   of the largest family (most checks) is diagnosed through the step card, and each reading is
   timed from the Enter key to the moment the suspects and the next step are on screen and the
@@ -52,7 +53,8 @@ app.exec()
 FIXBENCH = """
 import os, sys
 from fixbench.ui.main_window import run_app
-run_app(sys.argv[1], on_shown=lambda window: (print("shown", flush=True), os._exit(0)))
+run_app(sys.argv[1], on_shown=lambda window: print("shown", flush=True),
+        on_ready=lambda window: (print("usable", flush=True), os._exit(0)))
 """
 
 
@@ -63,15 +65,20 @@ def _environment() -> dict[str, str]:
     return env
 
 
-def _time_to_window(code: str, args: list[str], env: dict[str, str]) -> float:
+def _times_to_window(code: str, args: list[str], env: dict[str, str]) -> dict[str, float]:
+    """Seconds from launch to each line the child prints ("shown", and "usable" for fixbench), up
+    to the last one its code prints."""
     start = time.perf_counter()
     child = subprocess.Popen([sys.executable, "-c", code, *args], stdout=subprocess.PIPE,
                              stderr=subprocess.PIPE, text=True, env=env)
+    last = "usable" if "usable" in code else "shown"
+    seen: dict[str, float] = {}
     try:
         for line in child.stdout:
-            if line.strip() == "shown":
-                return time.perf_counter() - start
-        raise RuntimeError(f"the window did not show: {child.stderr.read()[-2000:]}")
+            seen[line.strip()] = time.perf_counter() - start
+            if line.strip() == last:
+                return seen
+        raise RuntimeError(f"the window did not become {last}: {child.stderr.read()[-2000:]}")
     finally:
         child.kill()
         child.wait(TIMEOUT_S)
@@ -79,15 +86,20 @@ def _time_to_window(code: str, args: list[str], env: dict[str, str]) -> float:
 
 def measure_startup(database: Path, runs: int = STARTUP_RUNS) -> dict:
     env = _environment()
-    _time_to_window(BARE, [], env)  # warm the disk cache for both alike
-    _time_to_window(FIXBENCH, [str(database)], env)
-    bare, ours = [], []
+    _times_to_window(BARE, [], env)  # warm the disk cache for both alike
+    _times_to_window(FIXBENCH, [str(database)], env)
+    bare, shown, usable = [], [], []
     for _ in range(runs):
-        bare.append(_time_to_window(BARE, [], env))
-        ours.append(_time_to_window(FIXBENCH, [str(database)], env))
-    bare_ms, ours_ms = statistics.median(bare) * 1000, statistics.median(ours) * 1000
-    return {"startup_bare_ms_median": round(bare_ms, 1), "startup_fixbench_ms_median": round(ours_ms, 1),
-            "startup_ratio": round(ours_ms / bare_ms, 3), "startup_runs": runs,
+        bare.append(_times_to_window(BARE, [], env)["shown"])
+        ours = _times_to_window(FIXBENCH, [str(database)], env)
+        shown.append(ours["shown"])
+        usable.append(ours["usable"])
+    bare_ms = statistics.median(bare) * 1000
+    shown_ms, usable_ms = statistics.median(shown) * 1000, statistics.median(usable) * 1000
+    return {"startup_bare_ms_median": round(bare_ms, 1),
+            "startup_fixbench_first_paint_ms_median": round(shown_ms, 1),
+            "startup_fixbench_ms_median": round(usable_ms, 1),
+            "startup_ratio": round(usable_ms / bare_ms, 3), "startup_runs": runs,
             "qt_platform": env.get("QT_QPA_PLATFORM", "default")}
 
 
@@ -155,12 +167,14 @@ def run_ui_benchmark(cases: int) -> dict:
 
 def print_ui_report(result: dict) -> None:
     ok = lambda good: "ok" if good else "OVER TARGET"
-    print(f"Start-up to first window (median of {result['startup_runs']} fresh processes each, "
-          f"Qt platform {result['qt_platform']}):")
-    print(f"  bare PySide6 window  {result['startup_bare_ms_median']:8.1f} ms")
-    print(f"  fixbench window      {result['startup_fixbench_ms_median']:8.1f} ms")
-    print(f"  ratio                {result['startup_ratio']:8.2f}   (target <= {STARTUP_TARGET:g}: "
-          f"{ok(result['startup_ratio'] <= STARTUP_TARGET)})")
+    print(f"Start-up (median of {result['startup_runs']} fresh processes each, Qt platform "
+          f"{result['qt_platform']}):")
+    print(f"  bare PySide6 window shown                 {result['startup_bare_ms_median']:8.1f} ms")
+    print(f"  fixbench window shown (opening the shop)  "
+          f"{result['startup_fixbench_first_paint_ms_median']:8.1f} ms")
+    print(f"  fixbench window usable (shop open, bench) {result['startup_fixbench_ms_median']:8.1f} ms")
+    print(f"  ratio, usable to bare                     {result['startup_ratio']:8.2f}   "
+          f"(target <= {STARTUP_TARGET:g}: {ok(result['startup_ratio'] <= STARTUP_TARGET)})")
     print(f"Enter on a reading to updated suspects and next step ({result['reading_update_family']}, "
           f"{result['reading_update_samples']} readings, saved to SQLite each time):")
     print(f"  median {result['reading_update_ms_median']:.1f} ms, 90th percentile "

@@ -127,7 +127,11 @@ def open_context(db: str | None) -> AppContext:
     return context
 
 
-def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None) -> int:
+def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None,
+            on_ready: Callable[[MainWindow], None] | None = None) -> int:
+    """Show the window at once, open the shop off the GUI thread, then put the bench in it.
+    ``on_shown`` runs after the first paint (the window with its "opening" line), ``on_ready`` once
+    the shop is open and the bench drawn: the window can be used (the ui benchmark times both)."""
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("fixbench")
     from fixbench.ui.workers import collect_garbage_on_gui_thread
@@ -140,6 +144,8 @@ def run_app(db: str | None, on_shown: Callable[[MainWindow], None] | None = None
 
     def opened(context: AppContext) -> None:
         window.attach(context)
+        if on_ready is not None:
+            QTimer.singleShot(0, lambda: on_ready(window))
 
     def failed(err: Exception) -> None:
         from fixbench.store.errors import StoreError
