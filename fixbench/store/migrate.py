@@ -10,6 +10,7 @@ Kinds Of Table Schema Changes", step 1 and 10.)
 
 from __future__ import annotations
 
+import functools
 from pathlib import Path
 
 from alembic import command
@@ -33,13 +34,16 @@ def alembic_config() -> Config:
     return config
 
 
+@functools.cache
 def head_revision() -> str:
     return ScriptDirectory.from_config(alembic_config()).get_current_head()
 
 
-def known_revisions() -> set[str]:
+@functools.cache
+def known_revisions() -> frozenset[str]:
     """Every schema revision this fixbench ships; a database at any other was written by a newer one."""
-    return {script.revision for script in ScriptDirectory.from_config(alembic_config()).walk_revisions()}
+    return frozenset(script.revision
+                     for script in ScriptDirectory.from_config(alembic_config()).walk_revisions())
 
 
 def current_revision(connection: Connection) -> str | None:
