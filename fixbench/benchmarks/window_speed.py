@@ -150,11 +150,11 @@ def _startup_database(folder: Path) -> Path:
 REVIEW_KEYS = ("history_open_ms", "filter_ms", "figures_ms")
 
 
-def run_ui_benchmark(cases: int) -> dict:
+def run_ui_benchmark(cases: int, startup_runs: int = STARTUP_RUNS) -> dict:
     with tempfile.TemporaryDirectory(prefix="fixbench-ui-") as temp:
         folder = Path(temp)
         result = {"targets": {"startup_ratio": STARTUP_TARGET, "reading_update_ms_median": READING_TARGET_MS}}
-        result.update(measure_startup(_startup_database(folder)))
+        result.update(measure_startup(_startup_database(folder), runs=startup_runs))
         result.update(measure_reading_update(folder))
     review = measure_review(cases)
     result["review"] = review

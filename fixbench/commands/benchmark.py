@@ -16,11 +16,15 @@ def add_arguments(parser) -> None:
     parser.add_argument("--units", type=int, default=None,
                         help="simulated units per family (engine: 150; practice: 70 per level)")
     parser.add_argument("--cases", type=int, default=100_000, help="cases in the temporary database (store, ui)")
+    parser.add_argument("--runs", type=int, default=5,
+                        help="fresh processes started for each start-up time (ui; default 5)")
 
 
 def run(args) -> int:
     if args.cases < 1:
         raise UsageError("--cases must be at least 1")
+    if args.runs < 1:
+        raise UsageError("--runs must be at least 1")
     if args.part == "engine":
         from fixbench.benchmarks.engine_figures import print_report, run_benchmark
 
@@ -41,7 +45,7 @@ def run(args) -> int:
         return 0
     from fixbench.benchmarks.window_speed import print_ui_report, run_ui_benchmark
 
-    result = run_ui_benchmark(cases=args.cases)
+    result = run_ui_benchmark(cases=args.cases, startup_runs=args.runs)
     print_json(result) if args.json else print_ui_report(result)
     return 0
 
