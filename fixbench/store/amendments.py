@@ -14,7 +14,7 @@ from typing import Any
 
 from sqlalchemy import select
 
-from fixbench.store.case_flags import refresh_comebacks
+from fixbench.store.case_flags import refresh_came_back
 from fixbench.store.cases import locked_case, utc_now
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError, checked_text
@@ -22,7 +22,7 @@ from fixbench.store.models import OUTCOMES, Amendment, Case
 from fixbench.store.owner import require_owner
 
 AMENDABLE = ("outcome", "bench_minutes", "confirmed_fault", "confirmed_part", "confirmed_stage",
-             "customer_ref", "notes")
+             "price_cents", "notes")
 
 
 def amend_closed_case(store: Store, case_id: int, changes: Mapping[str, Any], *, by: str,
@@ -37,6 +37,9 @@ def amend_closed_case(store: Store, case_id: int, changes: Mapping[str, Any], *,
         raise StoreInputError("an amendment needs who made it and why")
     if "outcome" in changes and changes["outcome"] not in OUTCOMES:
         raise StoreInputError(f"an outcome is one of {', '.join(OUTCOMES)}")
+    price = changes.get("price_cents")
+    if price is not None and (not isinstance(price, int) or price < 0):
+        raise StoreInputError("a price is a whole number of cents, not negative")
     with store.session() as session:
         case = locked_case(session, case_id)
         if case.status != "closed":
@@ -55,7 +58,7 @@ def amend_closed_case(store: Store, case_id: int, changes: Mapping[str, Any], *,
         session.add_all(rows)
         session.flush()
         if "outcome" in changes:
-            refresh_comebacks(session, case.device_id)
+            refresh_came_back(session, [case.id])
         return [row.id for row in rows]
 
 
@@ -80,8 +83,9 @@ def delete_case(store: Store, case_id: int, *, passphrase: str | None) -> None:
     require_owner(store, passphrase)
     with store.session() as session:
         case = locked_case(session, case_id)
-        device_id = case.device_id
+        original = case.comeback_of_id
         session.delete(case)
         session.flush()
-        # The unit's earlier repair may no longer have come back, or now come back to another case.
-        refresh_comebacks(session, device_id)
+        # The job it was a return of may no longer have come back (its own returns lose their
+        # link with it: the foreign key sets them to null).
+        refresh_came_back(session, [original])

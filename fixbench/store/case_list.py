@@ -7,10 +7,11 @@ from dataclasses import dataclass
 from datetime import datetime
 
 from sqlalchemy import func, select
+from sqlalchemy.orm import aliased
 
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import Case, Device, ReadingRow, Technician
+from fixbench.store.models import Case, Customer, Device, ReadingRow, Technician
 
 PAGE_SIZE = 200
 OPEN_STATUSES = ("intake", "diagnosing", "repairing", "verifying")
@@ -27,6 +28,7 @@ SORTABLE = {
     "device": Case.device_id,
     "minutes": Case.bench_minutes,
     "fault": Case.confirmed_fault,
+    "came_back": Case.came_back,
 }
 
 
@@ -44,6 +46,10 @@ class CaseRow:
     model: str
     minutes: int | None
     fault: str | None
+    customer: str | None = None  # the customer's name (None when not given, or removed)
+    came_back: bool = False  # repaired, and taken in again under warranty
+    return_ticket: str | None = None  # the ticket of that warranty return
+    return_of: str | None = None  # this job is a warranty return of that ticket
 
 
 def case_count(store: Store) -> int:
@@ -66,15 +72,22 @@ def rows_of_page(store: Store, page_ids, order) -> list[CaseRow]:
     """The rows of one page, given the query that picks the page's case ids: the ids are paged
     alone (an index walk), and names are joined for those rows only."""
     page = page_ids.subquery()
+    original, later = aliased(Case), aliased(Case)
+    return_ticket = (select(func.min(later.ticket_ref)).where(later.comeback_of_id == Case.id)
+                     .scalar_subquery())
     query = (select(Case.id, Case.ticket_ref, Case.opened_at, Case.closed_at, Case.status,
                     Case.outcome, Case.family_id, Technician.name, Device.make, Device.model,
-                    Case.bench_minutes, Case.confirmed_fault)
+                    Case.bench_minutes, Case.confirmed_fault, Customer.name, Case.came_back,
+                    return_ticket, original.ticket_ref)
              .join(page, page.c.id == Case.id)
              .join(Technician, Technician.id == Case.technician_id)
              .join(Device, Device.id == Case.device_id)
+             .outerjoin(Customer, Customer.id == Case.customer_id)
+             .outerjoin(original, original.id == Case.comeback_of_id)
              .order_by(*order))
     with store.read_connection() as connection:
-        return [CaseRow(*row) for row in connection.execute(query)]
+        return [CaseRow(*row[:13], bool(row[13]), *row[14:])
+                for row in connection.execute(query)]
 
 
 @dataclass(frozen=True)
@@ -120,3 +133,11 @@ def tickets_like(store: Store, ticket: str, limit: int = 2000) -> list[str]:
              .order_by(Case.ticket_ref).limit(limit))
     with store.read_connection() as connection:
         return list(connection.scalars(query))
+
+
+def open_case_with_ticket(store: Store, ticket: str) -> int | None:
+    """The open case with this ticket reference (as typed or scanned), if there is one."""
+    query = select(Case.id).where(Case.ticket_ref == ticket.strip(),
+                                  Case.status.in_(OPEN_STATUSES))
+    with store.reading() as session:
+        return session.scalar(query)

@@ -84,12 +84,28 @@ class KeptAmendment:
 
 
 @dataclass(frozen=True)
+class LinkedJob:
+    """A job linked to this one as its warranty return, or the job this one is a return of."""
+
+    id: int
+    ticket: str
+    opened_at: datetime
+    closed_at: datetime | None
+    outcome: str | None
+    notes: str  # the customer's words at intake: why it came back
+    confirmed_fault: str | None
+    family_id: str
+
+
+@dataclass(frozen=True)
 class CaseRecord:
     """Everything recorded under one case, oldest first within each list."""
 
     id: int
     ticket: str
-    customer_ref: str | None
+    customer_id: int | None
+    customer_name: str | None
+    customer_contact: str | None
     status: str
     outcome: str | None
     family_id: str
@@ -114,6 +130,12 @@ class CaseRecord:
     verifications: tuple[KeptVerification, ...]
     amendments: tuple[KeptAmendment, ...]
     cautions_acknowledged: bool
+    quoted_cents: int | None = None
+    price_cents: int | None = None
+    parts_cents: int = 0
+    labour_rate_cents: int | None = None  # per hour, as closed
+    return_of: LinkedJob | None = None  # this job is a warranty return of that one
+    returns: tuple[LinkedJob, ...] = ()  # the warranty returns of this job, oldest first
 
     @property
     def standing_readings(self) -> tuple[KeptReading, ...]:
@@ -176,9 +198,14 @@ def _record(session, case: Case) -> CaseRecord:
                        for a in session.scalars(select(Amendment)
                                                 .where(Amendment.case_id == case.id)
                                                 .order_by(Amendment.id)))
-    device = case.device
+    device, person = case.device, case.customer
+    original = None if case.comeback_of_id is None else session.get(Case, case.comeback_of_id)
+    returns = session.scalars(select(Case).where(Case.comeback_of_id == case.id)
+                              .order_by(Case.opened_at, Case.id)).all()
     return CaseRecord(
-        id=case.id, ticket=case.ticket_ref, customer_ref=case.customer_ref, status=case.status,
+        id=case.id, ticket=case.ticket_ref, customer_id=case.customer_id,
+        customer_name=None if person is None else person.name,
+        customer_contact=None if person is None else person.contact, status=case.status,
         outcome=case.outcome, family_id=case.family_id, ratings=dict(case.ratings or {}),
         notes=case.notes, opened_at=case.opened_at, closed_at=case.closed_at,
         bench_minutes=case.bench_minutes, confirmed_fault=case.confirmed_fault,
@@ -187,4 +214,13 @@ def _record(session, case: Case) -> CaseRecord:
         kind=device.kind, serial=device.serial, technician_id=case.technician_id,
         technician=case.technician.name, readings=readings, skipped=skipped, repairs=repairs,
         verifications=verifications, amendments=amendments,
-        cautions_acknowledged=session.get(CautionAcknowledgement, case.id) is not None)
+        cautions_acknowledged=session.get(CautionAcknowledgement, case.id) is not None,
+        quoted_cents=case.quoted_cents, price_cents=case.price_cents,
+        parts_cents=case.parts_cents or 0, labour_rate_cents=case.labour_rate_cents,
+        return_of=None if original is None else _linked(original),
+        returns=tuple(_linked(later) for later in returns))
+
+
+def _linked(case: Case) -> LinkedJob:
+    return LinkedJob(case.id, case.ticket_ref, case.opened_at, case.closed_at, case.outcome,
+                     case.notes, case.confirmed_fault, case.family_id)

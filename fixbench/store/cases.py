@@ -20,7 +20,7 @@ from datetime import UTC, datetime
 from sqlalchemy import func, select
 from sqlalchemy.orm import Session
 
-from fixbench.store.case_flags import refresh_comebacks
+from fixbench.store.case_flags import COMEBACK_DAYS, original_job, refresh_came_back
 from fixbench.store.database import Store
 from fixbench.store.errors import ClosedCaseError, StoreInputError, checked_text
 from fixbench.store.models import (OUTCOMES, REPAIR_KINDS, Case, CautionAcknowledgement, ReadingRow,
@@ -62,24 +62,33 @@ def utc_now() -> datetime:
     return datetime.now(UTC).replace(tzinfo=None)
 
 
+def _cents(value: int | None, what: str) -> int | None:
+    if value is not None and value < 0:
+        raise StoreInputError(f"{what} cannot be negative")
+    return value
+
+
 def open_case(store: Store, *, ticket_ref: str, device_id: int, technician_id: int,
-              family_id: str, ratings: Mapping[str, str], customer_ref: str | None = None,
-              notes: str = "", opened_at: datetime | None = None) -> int:
-    """Start a case at intake and return its id."""
+              family_id: str, ratings: Mapping[str, str], customer_id: int | None = None,
+              quoted_cents: int | None = None, notes: str = "",
+              opened_at: datetime | None = None, comeback_days: int = COMEBACK_DAYS) -> int:
+    """Start a case at intake and return its id. A unit back within ``comeback_days`` of a repair
+    is linked to that job as its warranty return (:func:`fixbench.store.case_flags.original_job`)."""
+    opened_at = opened_at or utc_now()
     case = Case(ticket_ref=checked_text(ticket_ref, "ticket reference"),
-                customer_ref=None if customer_ref is None else checked_text(customer_ref,
-                                                                           "customer reference"),
-                device_id=device_id, technician_id=technician_id,
+                customer_id=customer_id, device_id=device_id, technician_id=technician_id,
                 family_id=checked_text(family_id, "supply family"),
                 ratings={checked_text(k, "rating name"): checked_text(v, "rating")
                          for k, v in ratings.items()},
-                status="intake", notes=checked_text(notes, "notes"),
-                opened_at=opened_at or utc_now())
+                status="intake", notes=checked_text(notes, "notes"), opened_at=opened_at,
+                quoted_cents=_cents(quoted_cents, "a quoted price"))
     with store.session() as session:
+        original = original_job(session, device_id=device_id, customer_id=customer_id,
+                                opened_at=opened_at, window_days=comeback_days)
+        case.comeback_of_id = None if original is None else original.id
         session.add(case)
         session.flush()
-        # The unit coming back may make an earlier repair of it a comeback.
-        refresh_comebacks(session, device_id)
+        refresh_came_back(session, [case.comeback_of_id])
         return case.id
 
 
@@ -218,6 +227,7 @@ def add_repair_action(store: Store, case_id: int, *, part_id: str, action: str,
                               test_passed=None if test_passed is None else bool(test_passed),
                               done_at=done_at or utc_now())
         session.add(repair)
+        case.parts_cents = (case.parts_cents or 0) + parts_cost_cents
         session.flush()
         return repair.id
 
@@ -241,12 +251,16 @@ def add_verification(store: Store, case_id: int, *, check_id: str, typed: str,
 
 def close_case(store: Store, case_id: int, *, outcome: str, bench_minutes: int,
                confirmed_fault: str | None = None, confirmed_part: str | None = None,
-               confirmed_stage: str | None = None, closed_at: datetime | None = None) -> None:
-    """Close a case with its outcome; after this it changes only by amendment."""
+               confirmed_stage: str | None = None, closed_at: datetime | None = None,
+               price_cents: int | None = None, labour_rate_cents: int | None = None) -> None:
+    """Close a case with its outcome, its final price and the labour rate it was worked at;
+    after this it changes only by amendment."""
     if outcome not in OUTCOMES:
         raise StoreInputError(f"an outcome is one of {', '.join(OUTCOMES)}")
     if bench_minutes < 0:
         raise StoreInputError("bench minutes cannot be negative")
+    _cents(price_cents, "a price")
+    _cents(labour_rate_cents, "a labour rate")
     with store.session() as session:
         case = case_for_writing(session, case_id)
         case.status = "closed"
@@ -256,5 +270,7 @@ def close_case(store: Store, case_id: int, *, outcome: str, bench_minutes: int,
         case.confirmed_part = confirmed_part
         case.confirmed_stage = confirmed_stage
         case.closed_at = closed_at or utc_now()
+        case.price_cents = price_cents
+        case.labour_rate_cents = labour_rate_cents
         session.flush()
-        refresh_comebacks(session, case.device_id)
+        refresh_came_back(session, [case.id])

@@ -1,8 +1,10 @@
 """Taking records out of the store: cases of a period as CSV, and one case as a re-runnable JSON.
 
-The CSV is for the owner's spreadsheet, so it needs the owner's passphrase (it carries every
-customer reference). Cells that a spreadsheet would run as a formula (starting with = + - @ or a
-tab/CR) get a leading apostrophe (OWASP, "CSV Injection").
+The CSV is for the owner's spreadsheet, so it needs the owner's passphrase. Customers' names and
+contacts are personal data kept in the shop's database: they are left out of the CSV unless the
+owner asks for them (``with_customers``), and then a job's customer is the one kept now (a person
+removed on request has no name to export). Cells that a spreadsheet would run as a formula
+(starting with = + - @ or a tab/CR) get a leading apostrophe (OWASP, "CSV Injection").
 
 The case JSON holds what ``fixbench diagnose`` reads (``family``, ``ratings`` and the ``readings``
 in the order taken, each as the check id and the text typed), so a past case can be re-run;
@@ -20,20 +22,21 @@ from datetime import datetime
 from typing import Any, TextIO
 
 from sqlalchemy import and_, func, select
+from sqlalchemy.orm import aliased
 
 from fixbench.store.case_record import load_case_record
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
-from fixbench.store.models import (Case, Device, ReadingRow, RepairAction, Technician,
-                                   WithdrawnReading)
+from fixbench.store.models import Case, Customer, Device, ReadingRow, Technician, WithdrawnReading
 from fixbench.store.owner import require_owner
 
 CASE_JSON_FORMAT = "fixbench-case"
 CASE_JSON_VERSION = 1
-CSV_COLUMNS = ("ticket", "customer", "opened_at", "closed_at", "status", "outcome", "family",
-               "make", "model", "kind", "technician", "bench_minutes", "confirmed_fault",
-               "confirmed_part", "confirmed_stage", "engine_first_suspect", "parts_cost",
-               "readings")
+CSV_COLUMNS = ("ticket", "opened_at", "closed_at", "status", "outcome", "family", "make", "model",
+               "kind", "technician", "bench_minutes", "confirmed_fault", "confirmed_part",
+               "confirmed_stage", "engine_first_suspect", "came_back", "return_of",
+               "quoted_price", "price", "parts_cost", "readings")
+CUSTOMER_COLUMNS = ("customer", "customer_contact")
 _FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
 
 
@@ -46,20 +49,21 @@ def _cell(value: Any) -> Any:
 
 
 def export_cases_csv(store: Store, out: TextIO, *, since: datetime, until: datetime,
-                     passphrase: str | None) -> int:
+                     passphrase: str | None, with_customers: bool = False) -> int:
     """Write cases opened in [since, until) to ``out`` as CSV; returns the number of cases."""
     require_owner(store, passphrase)
     where, order = _period(since, until)
-    return write_cases_csv(store, out, where=where, order=order)
+    return write_cases_csv(store, out, where=where, order=order, with_customers=with_customers)
 
 
 def export_cases_rows(store: Store, *, since: datetime, until: datetime,
-                      passphrase: str | None) -> list[dict[str, Any]]:
+                      passphrase: str | None, with_customers: bool = False) -> list[dict[str, Any]]:
     """The cases of :func:`export_cases_csv` as one dict per case (the CSV's columns), for JSON."""
     require_owner(store, passphrase)
     where, order = _period(since, until)
-    return [{k: _iso(v) if isinstance(v, datetime) else v for k, v in zip(CSV_COLUMNS, row)}
-            for row in case_rows(store, where=where, order=order)]
+    columns = CSV_COLUMNS + (CUSTOMER_COLUMNS if with_customers else ())
+    return [{k: _iso(v) if isinstance(v, datetime) else v for k, v in zip(columns, row)}
+            for row in case_rows(store, where=where, order=order, with_customers=with_customers)]
 
 
 def _period(since: datetime, until: datetime):
@@ -69,40 +73,52 @@ def _period(since: datetime, until: datetime):
             (Case.opened_at.asc(), Case.id.asc()))
 
 
-def write_cases_csv(store: Store, out: TextIO, *, where, order) -> int:
-    """The one CSV writer of cases: the cases matching ``where`` in ``order``, with their parts
-    cost and reading count. Callers check the owner's passphrase first."""
+def write_cases_csv(store: Store, out: TextIO, *, where, order,
+                    with_customers: bool = False) -> int:
+    """The one CSV writer of cases: the cases matching ``where`` in ``order``, with their money,
+    warranty-return link and reading count (and, asked for, the customer). Callers check the
+    owner's passphrase first."""
     writer = csv.writer(out)
-    writer.writerow(CSV_COLUMNS)
+    writer.writerow(CSV_COLUMNS + (CUSTOMER_COLUMNS if with_customers else ()))
     count = 0
-    for row in case_rows(store, where=where, order=order):
+    for row in case_rows(store, where=where, order=order, with_customers=with_customers):
         writer.writerow([_cell(v) for v in row])
         count += 1
     return count
 
 
-def case_rows(store: Store, *, where, order) -> Iterator[list[Any]]:
-    """The one query of exported cases: one list per case in :data:`CSV_COLUMNS` order, the parts
-    cost in the shop's money ("12.50"). Callers check the owner first."""
-    cost = (select(func.coalesce(func.sum(RepairAction.parts_cost_cents), 0))
-            .where(RepairAction.case_id == Case.id).scalar_subquery())
+def _amount(cents: int | None) -> str:
+    return "" if cents is None else f"{cents / 100:.2f}"
+
+
+def case_rows(store: Store, *, where, order, with_customers: bool = False) -> Iterator[list[Any]]:
+    """The one query of exported cases: one list per case in :data:`CSV_COLUMNS` order (then
+    :data:`CUSTOMER_COLUMNS`, asked for), amounts in the shop's money ("12.50"). Callers check
+    the owner first."""
     # Readings taken back with undo are kept in the record but do not count as readings.
     readings = (select(func.count()).where(ReadingRow.case_id == Case.id,
                                            ReadingRow.id.not_in(select(WithdrawnReading.reading_id)))
                 .scalar_subquery())
-    query = (select(Case.ticket_ref, Case.customer_ref, Case.opened_at, Case.closed_at,
-                    Case.status, Case.outcome, Case.family_id, Device.make, Device.model,
-                    Device.kind, Technician.name, Case.bench_minutes, Case.confirmed_fault,
-                    Case.confirmed_part, Case.confirmed_stage, Case.top_suspect_fault,
-                    cost, readings)
+    original = aliased(Case)
+    people = [Customer.name, Customer.contact] if with_customers else []
+    query = (select(Case.ticket_ref, Case.opened_at, Case.closed_at, Case.status, Case.outcome,
+                    Case.family_id, Device.make, Device.model, Device.kind, Technician.name,
+                    Case.bench_minutes, Case.confirmed_fault, Case.confirmed_part,
+                    Case.confirmed_stage, Case.top_suspect_fault, Case.came_back,
+                    original.ticket_ref, Case.quoted_cents, Case.price_cents, Case.parts_cents,
+                    readings, *people)
              .join(Device, Device.id == Case.device_id)
              .join(Technician, Technician.id == Case.technician_id)
+             .outerjoin(Customer, Customer.id == Case.customer_id)
+             .outerjoin(original, original.id == Case.comeback_of_id)
              .where(where)
              .order_by(*order))
     with store.read_connection() as connection:
         for row in connection.execute(query, execution_options={"yield_per": 1000}):
-            *head, cents, n_readings = row
-            yield [*head, f"{cents / 100:.2f}", n_readings]
+            head, (back, return_of, quoted, price, parts, n_readings), customer = (
+                row[:15], row[15:21], row[21:])
+            yield [*head, "yes" if back else "", return_of, _amount(quoted), _amount(price),
+                   _amount(parts), n_readings, *customer]
 
 
 def case_as_json(store: Store, ticket_or_id: str | int, *,
@@ -147,7 +163,8 @@ def case_as_json(store: Store, ticket_or_id: str | int, *,
         },
     }
     if owner_passphrase is not None:
-        shown["record"]["customer"] = {"reference": case.customer_ref}
+        shown["record"]["customer"] = {"name": case.customer_name,
+                                       "contact": case.customer_contact}
     return shown
 
 

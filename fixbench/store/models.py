@@ -4,11 +4,15 @@ Times are naive UTC. Money is integer cents. Free text is ``Text`` so any length
 SQLite and PostgreSQL. Engine identifiers (families, checks, faults, parts, stages) are plain
 strings owned by the knowledge base; the store does not validate them against it.
 
-``cases.top_suspect_fault``, ``cases.came_back``, ``cases.failed_verification`` and the
-``confirmed_*`` columns are summaries kept by the store as cases are written (see
-:mod:`fixbench.store.case_flags`), so the owner's figures are single indexed SQL aggregates at
-100,000 cases; readings, suspects, verifications and the device's later cases stay the full record
-they are derived from. Changing anything here needs a new migration under ``migrations/``.
+``cases.top_suspect_fault``, ``cases.came_back``, ``cases.failed_verification``,
+``cases.parts_cents`` and the ``confirmed_*`` columns are summaries kept by the store as cases are
+written (see :mod:`fixbench.store.case_flags`), so the owner's figures are single indexed SQL
+aggregates at 100,000 cases; readings, suspects, repairs, verifications and the warranty returns
+linked to a case stay the full record they are derived from. Changing anything here needs a new
+migration under ``migrations/``.
+
+A customer's name and contact are personal data: they live in ``customers`` only, linked from the
+case, so removing a person on request drops one row and keeps every job's figures.
 """
 
 from __future__ import annotations
@@ -22,6 +26,11 @@ from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, relationship
 STATUSES = ("intake", "diagnosing", "repairing", "verifying", "closed")
 OUTCOMES = ("repaired", "not_economical", "no_fault_found", "returned_unrepaired")
 ROLES = ("technician", "trainee")
+# Every column of ``cases`` the owner's figures read, in one covering index (migration 0006).
+FIGURE_COLUMNS = ("status", "opened_at", "technician_id", "device_id", "family_id",
+                  "confirmed_fault", "confirmed_part", "outcome", "came_back",
+                  "failed_verification", "top_suspect_fault", "bench_minutes", "price_cents",
+                  "parts_cents", "labour_rate_cents", "comeback_of_id", "closed_at")
 REPAIR_KINDS = ("replaced", "tested")
 
 
@@ -56,12 +65,27 @@ class Device(Base):
     label_ratings: Mapped[dict[str, str]] = mapped_column(JSON, default=dict)
     serial: Mapped[str | None] = mapped_column(Text)
 
+    __table_args__ = (Index("ix_devices_serial", "serial"),)
+
+
+class Customer(Base):
+    """A person who brings units in: a name and how to reach them (both personal data)."""
+
+    __tablename__ = "customers"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    name: Mapped[str] = mapped_column(Text)
+    contact: Mapped[str | None] = mapped_column(Text)
+    added_at: Mapped[datetime] = mapped_column(DateTime)
+
+    __table_args__ = (Index("ix_customers_name", "name"),)
+
 
 class Case(Base):
     __tablename__ = "cases"
     id: Mapped[int] = mapped_column(primary_key=True)
     ticket_ref: Mapped[str] = mapped_column(Text, unique=True)
-    customer_ref: Mapped[str | None] = mapped_column(Text)
+    customer_id: Mapped[int | None] = mapped_column(
+        ForeignKey("customers.id", ondelete="SET NULL"))
     device_id: Mapped[int] = mapped_column(ForeignKey("devices.id"))
     technician_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"))
     family_id: Mapped[str] = mapped_column(Text)
@@ -76,13 +100,23 @@ class Case(Base):
     confirmed_stage: Mapped[str | None] = mapped_column(Text)
     notes: Mapped[str] = mapped_column(Text, default="")
     top_suspect_fault: Mapped[str | None] = mapped_column(Text)
-    # Repaired, and the same unit was opened again as its next case within 90 days of closing.
+    # Repaired, and a later case was taken in as a warranty return of it (comeback_of_id).
     came_back: Mapped[bool] = mapped_column(Boolean, default=False, server_default=false())
     failed_verification: Mapped[bool] = mapped_column(Boolean, default=False,
                                                       server_default=false())
+    # Money, in cents: the price quoted at intake and the final price at close; the parts fitted
+    # (kept as repair lines are written); the labour rate per hour the job was closed at.
+    quoted_cents: Mapped[int | None] = mapped_column(Integer)
+    price_cents: Mapped[int | None] = mapped_column(Integer)
+    parts_cents: Mapped[int] = mapped_column(Integer, default=0, server_default="0")
+    labour_rate_cents: Mapped[int | None] = mapped_column(Integer)
+    # This case is a warranty return of that earlier job (linked at intake).
+    comeback_of_id: Mapped[int | None] = mapped_column(
+        ForeignKey("cases.id", ondelete="SET NULL"))
 
     device: Mapped[Device] = relationship()
     technician: Mapped[Technician] = relationship()
+    customer: Mapped[Customer | None] = relationship()
     readings: Mapped[list[ReadingRow]] = relationship(
         back_populates="case", order_by="ReadingRow.seq", cascade="all, delete-orphan",
         passive_deletes=True)
@@ -109,6 +143,10 @@ class Case(Base):
         Index("ix_cases_fig_part", "status", "confirmed_part", "outcome", "opened_at"),
         Index("ix_cases_fig_stage", "status", "confirmed_stage", "outcome", "opened_at"),
         Index("ix_cases_fig_device", "status", "device_id", "outcome", "opened_at"),
+        # Every figure's columns, warranty returns and customers (migration 0006 says why).
+        Index("ix_cases_fig_all", *FIGURE_COLUMNS),
+        Index("ix_cases_customer", "customer_id", "opened_at"),
+        Index("ix_cases_comeback_of", "comeback_of_id"),
     )
 
 

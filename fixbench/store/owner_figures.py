@@ -1,9 +1,9 @@
 """The owner's figures, each one SQL aggregate run in the database (never a Python loop).
 
 Definitions used throughout (counted over closed cases opened in the optional period):
-- comeback: a case closed as repaired whose device (the same physical unit) is opened again as its
-  next case within 90 days of that closing (``cases.came_back``, kept by
-  :mod:`fixbench.store.case_flags` as cases are written);
+- comeback: a case closed as repaired that a later case was taken in as the warranty return of
+  (the same unit, or the same customer's unit of that model, back within the shop's comeback
+  window; ``cases.came_back``, kept by :mod:`fixbench.store.case_flags` as cases are written);
 - first-time fix: a case closed as repaired with no failed verification
   (``cases.failed_verification``) and no comeback;
 - first-suspect hit: the engine's first suspect after the last reading (``top_suspect_fault``)
@@ -61,6 +61,8 @@ def _month(dialect: str, column) -> ColumnElement[str]:
 def _run(store: Store, title: str, query: Select) -> Figure:
     with store.read_connection() as connection:
         result = connection.execute(query)
+        if store.dialect == "sqlite":  # no Decimal to turn into float: take the rows as they are
+            return Figure(title, tuple(result.keys()), tuple(map(tuple, result)))
         return Figure(title, tuple(result.keys()),
                       tuple(tuple(_plain(v) for v in row) for row in result))
 
@@ -92,12 +94,24 @@ def cases_by_family(store: Store, period: Period = Period()) -> Figure:
     return _count_by(store, "Cases by supply family", Case.family_id.label("family"), period)
 
 
+def _count_by_family(store: Store, title: str, column, period: Period) -> Figure:
+    """Cases and repaired per family and value: an engine id names a part of its family ("Q1" is
+    a MOSFET in one family and a transistor in another), so it is counted within its family."""
+    family = Case.family_id.label("family")
+    query = (select(family, column, func.count().label("cases"), _repaired().label("repaired"))
+             .where(period.where(), column.is_not(None))
+             .group_by(Case.family_id, column).order_by(func.count().desc(), family, column))
+    return _run(store, title, query)
+
+
 def cases_by_fault(store: Store, period: Period = Period()) -> Figure:
-    return _count_by(store, "Cases by confirmed fault", Case.confirmed_fault.label("fault"), period)
+    return _count_by_family(store, "Cases by confirmed fault",
+                            Case.confirmed_fault.label("fault"), period)
 
 
 def cases_by_part(store: Store, period: Period = Period()) -> Figure:
-    return _count_by(store, "Cases by confirmed part", Case.confirmed_part.label("part"), period)
+    return _count_by_family(store, "Cases by confirmed part", Case.confirmed_part.label("part"),
+                            period)
 
 
 def cases_by_stage(store: Store, period: Period = Period()) -> Figure:
@@ -135,8 +149,9 @@ def repair_rates(store: Store, period: Period = Period()) -> Figure:
     return _run(store, "First-time fix and comebacks", query)
 
 
-def _quantiles(grouping: list, minutes, where) -> Select:
-    """Median and nearest-rank quartiles of ``minutes`` per group, exact, from a count per value.
+def _quantiles(grouping: list, minutes, where, unit: str = "minutes") -> Select:
+    """Median and nearest-rank quartiles of ``minutes`` per group, exact, from a count per value
+    (columns ``median_<unit>``, ``p25_<unit>``, ``p75_<unit>``; any whole-number measure will do).
 
     Bench minutes are whole numbers with a few hundred distinct values, so the cases are first
     counted per value (one GROUP BY along an index); the value at rank r is then the smallest
@@ -160,9 +175,9 @@ def _quantiles(grouping: list, minutes, where) -> Select:
     return select(
         *keys,
         func.max(n).label("cases"),
-        ((at_rank((n + 1) // 2) + at_rank((n + 2) // 2)) / 2.0).label("median_minutes"),
-        at_rank((n + 3) // 4).label("p25_minutes"),
-        at_rank((3 * n + 3) // 4).label("p75_minutes"),
+        ((at_rank((n + 1) // 2) + at_rank((n + 2) // 2)) / 2.0).label(f"median_{unit}"),
+        at_rank((n + 3) // 4).label(f"p25_{unit}"),
+        at_rank((3 * n + 3) // 4).label(f"p75_{unit}"),
     ).group_by(*keys)
 
 

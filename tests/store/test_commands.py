@@ -14,6 +14,7 @@ from fixbench.cli import main
 from fixbench.store import open_store
 from fixbench.store.digest import content_digest
 from fixbench.store.cases import open_case
+from fixbench.store.customers import find_or_add_customer
 from fixbench.store.models import Case
 from fixbench.store.owner import set_owner_passphrase
 from fixbench.store.people import add_device, add_technician
@@ -31,8 +32,9 @@ def shop_file(tmp_path, monkeypatch):
     record_case(store, add_technician(store, "Ada"),
                 add_device(store, make="Zintrek", model="Z-Mini", kind="phone charger",
                            label_ratings=RATINGS), ticket="K-1", opened=START)
+    customer = find_or_add_customer(store, "Mrs Quorrel", "0123")
     with store.session() as session:
-        session.scalars(select(Case)).one().customer_ref = "Mrs Quorrel, 0123"
+        session.scalars(select(Case)).one().customer_id = customer
     store.close()
     monkeypatch.setenv("FIXBENCH_DB", str(path))
     return path
@@ -120,7 +122,8 @@ def test_export_case_leaves_the_customer_out_unless_the_owner_asks(shop_file, ca
     out = capsys.readouterr().out
     assert "Quorrel" not in out and "customer" not in json.loads(out)["record"]
     assert main(["export", "--case", "K-1", "--with-customer"]) == 0
-    assert json.loads(capsys.readouterr().out)["record"]["customer"] == {"reference": "Mrs Quorrel, 0123"}
+    assert json.loads(capsys.readouterr().out)["record"]["customer"] == {"name": "Mrs Quorrel",
+                                                                        "contact": "0123"}
     owner_types[0] = "a guess"
     assert main(["export", "--case", "K-1", "--with-customer"]) == 2
     assert "Quorrel" not in "".join(capsys.readouterr())
@@ -148,7 +151,8 @@ def test_export_out_is_left_as_it_was_until_the_passphrase_is_accepted(shop_file
     assert out.read_text() == "last month's figures\n"
     owner_types[0] = OWNER
     assert main(["export", "--since", "2024-01-01", "--until", "2024-02-01", "--out", str(out)]) == 0
-    assert out.read_text().startswith("ticket,customer,")
+    assert out.read_text().startswith("ticket,opened_at,")  # customers only when asked for
+    assert "Quorrel" not in out.read_text()
     assert sorted(p.name for p in tmp_path.iterdir() if p.name.startswith(".")) == []
 
 

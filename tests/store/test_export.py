@@ -92,3 +92,20 @@ def test_a_reading_taken_back_is_left_out_of_the_case_file(tmp_path):
     assert data["readings"] == [{"check": "symptom_dead", "value": "yes"}]
     assert data["record"]["withdrawn_readings"] == [{"check": "fuse_resistance", "value": "0.1"}]
     store.close()
+
+
+def test_customers_are_left_out_of_the_csv_unless_the_owner_asks(store):
+    from tests.store.money_shop import CUSTOMERS, write_money_shop
+
+    write_money_shop(store)
+    set_owner_passphrase(store, PASS)
+    plain, asked = io.StringIO(), io.StringIO()
+    period = dict(since=START.replace(year=2000), until=START.replace(year=2030))
+    export_cases_csv(store, plain, passphrase=PASS, **period)
+    export_cases_csv(store, asked, passphrase=PASS, with_customers=True, **period)
+    name, contact = CUSTOMERS[0]
+    assert name not in plain.getvalue() and contact not in plain.getvalue()
+    rows = {row["ticket"]: row for row in csv.DictReader(io.StringIO(asked.getvalue()))}
+    assert rows["M1"]["customer"] == name and rows["M1"]["customer_contact"] == contact
+    assert rows["M5"]["return_of"] == "M1" and rows["M1"]["came_back"] == "yes"
+    assert rows["M1"]["price"] == "45.00" and rows["M1"]["parts_cost"] == "2.40"

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import json
-from datetime import datetime
+from datetime import datetime, timedelta
 
 import pytest
 from alembic.autogenerate import compare_metadata
@@ -229,4 +229,48 @@ def test_revision_0005_attempts_keep_their_rows_and_know_nothing_of_what_they_ta
             "FROM practice_attempts WHERE id = 200")).one()
     assert (row[0], bool(row[1])) == ("drawn:normal:pwm_flyback:Q1.short:s3", True)
     assert tuple(row[2:]) == (None, None, None, None)
+    store.close()
+
+
+def test_revision_0005_customer_references_parts_and_returns_move_to_their_places(store_url):
+    """Customer references become customers, repair lines sum into the job's parts, and each
+    repaired unit's next job within 90 days becomes its linked warranty return, so every job
+    that came back before still has."""
+    store = open_store(store_url, migrate=False)
+    upgrade(store, "0005")
+    at = datetime(2024, 2, 1, 9)
+    with store.engine.begin() as connection:
+        _fill_v1(connection, cases=4)  # one unit, four repaired jobs at the same moment
+        connection.execute(_sql("INSERT INTO devices (id, make, model, kind, label_ratings) "
+                                "VALUES (2, 'Tarnwick', 'TW-9', 'usb adapter', '{}')"))
+        for case_id, ref, days in ((10, "Mrs Example", 0), (11, "Mrs Example", 200),
+                                   (12, None, 210)):
+            connection.execute(_sql(
+                "INSERT INTO cases (id, ticket_ref, customer_ref, device_id, technician_id, "
+                "family_id, ratings, status, outcome, opened_at, closed_at, bench_minutes, notes) "
+                "VALUES (:id, :t, :ref, 2, 1, 'pwm_flyback', '{}', 'closed', 'repaired', :at, "
+                ":at, 20, '')"), {"id": case_id, "t": f"C-{case_id}", "ref": ref,
+                                  "at": at + timedelta(days=days)})
+        connection.execute(_sql(
+            "INSERT INTO repair_actions (case_id, part_id, action, parts_cost_cents, done_at, note)"
+            " VALUES (10, 'C1', 'replaced', 240, :at, ''), (10, 'F1', 'tested', 0, :at, '')"),
+            {"at": at})
+    before = _counts(store)
+
+    upgrade(store, "head")
+
+    assert _counts(store) == before
+    # The rule up to 0005: a repaired job whose unit's next job opened within 90 days of its
+    # closing came back: jobs 1-3 (the next one 0 days after) and C-11 (C-12 ten days after).
+    assert {c for c, (back, _) in _flags(store).items() if back} == {1, 2, 3, 11}
+    with store.engine.connect() as connection:
+        customers = connection.execute(text("SELECT id, name FROM customers")).all()
+        rows = {c: (customer, parts, back_of) for c, customer, parts, back_of in connection.execute(
+            text("SELECT id, customer_id, parts_cents, comeback_of_id FROM cases"))}
+    assert [name for _id, name in customers] == ["Mrs Example"]
+    (mrs,) = [customer_id for customer_id, _name in customers]
+    assert rows[10] == (mrs, 240, None) and rows[11] == (mrs, 0, None)
+    assert rows[12] == (None, 0, 11)  # ten days after C-11 closed, on the same unit
+    assert [rows[c][2] for c in (1, 2, 3, 4)] == [None, 1, 2, 3]
+    assert rows[1][1] == 150  # the first schema's one replaced part
     store.close()

@@ -48,9 +48,10 @@ def test_cases_by_model_groups_units_of_the_same_model(shop):
 
 
 def test_cases_by_confirmed_fault_part_stage_and_family(shop):
-    assert figures.cases_by_fault(shop).rows == (("Q1.short", 2, 2), ("C1.dry", 1, 1),
-                                                 ("R3.open", 1, 1))
-    assert figures.cases_by_part(shop).rows[0] == ("Q1", 2, 2)
+    assert figures.cases_by_fault(shop).rows == (("pwm_flyback", "Q1.short", 2, 2),
+                                                 ("pwm_flyback", "C1.dry", 1, 1),
+                                                 ("pwm_flyback", "R3.open", 1, 1))
+    assert figures.cases_by_part(shop).rows[0] == ("pwm_flyback", "Q1", 2, 2)
     assert dict((r[0], r[1]) for r in figures.cases_by_stage(shop).rows) == {
         "switch": 2, "startup": 1, "output": 1}
     assert figures.cases_by_family(shop).rows == (("pwm_flyback", 5, 4),)
@@ -90,3 +91,19 @@ def test_every_owner_figure_runs_on_an_empty_shop(store):
     for name, figure in OWNER_FIGURES.items():
         result = figure(store)
         assert result.title and result.columns, name
+
+
+def test_a_fault_id_is_counted_within_its_family(shop):
+    """"Q1.short" is a shorted MOSFET in a flyback and a shorted transistor in a self-oscillating
+    charger: the two are different parts, so they are counted apart (issue: the fault chart merged
+    them under one label)."""
+    ada = add_technician(shop, "Cleo")
+    charger = add_device(shop, make="Zintrek", model="Z-Mini", kind="phone charger",
+                         label_ratings=RATINGS)
+    record_case(shop, ada, charger, ticket="s1", opened=datetime(2024, 7, 1, 9),
+                family="self_oscillating")
+    rows = figures.cases_by_fault(shop).rows
+    assert ("pwm_flyback", "Q1.short", 2, 2) in rows
+    assert ("self_oscillating", "Q1.short", 1, 1) in rows
+    parts = figures.cases_by_part(shop).rows
+    assert ("self_oscillating", "Q1", 1, 1) in parts and ("pwm_flyback", "Q1", 2, 2) in parts
