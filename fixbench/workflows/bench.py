@@ -24,6 +24,7 @@ from fixbench.store import StoreError, cases, priors
 from fixbench.store.case_record import CaseRecord, KeptRepair, KeptVerification, load_case_record
 from fixbench.store.cases import RankedSuspect
 from fixbench.store.database import Store
+from fixbench.store.shop_terms import shop_terms
 
 
 @dataclass(frozen=True)
@@ -39,10 +40,18 @@ class CaseInView:
     opened_at: datetime
     cautions_acknowledged: bool
     technician_id: int  # who opened the case
+    customer: str | None = None
+    quoted_cents: int | None = None  # the price quoted at intake
+    return_of: str | None = None  # the ticket this job is a warranty return of
 
     @property
     def heading(self) -> str:
         return f"{self.ticket}  \u00b7  {self.make} {self.model}  \u00b7  {self.family_title}"
+
+    @property
+    def expected_price(self) -> int | None:
+        """What to charge, as far as intake knew: nothing for a warranty return, else the quote."""
+        return 0 if self.return_of is not None else self.quoted_cents
 
 
 @dataclass(frozen=True)
@@ -80,7 +89,8 @@ def keep(store: Store, case_id: int, reading: Reading, state: DiagnosisState) ->
 def case_view(record: CaseRecord, family: Family) -> CaseInView:
     return CaseInView(record.id, record.ticket, record.make, record.model, family.id, family.title,
                       record.ratings, record.status, record.opened_at, record.cautions_acknowledged,
-                      record.technician_id)
+                      record.technician_id, record.customer_name, record.quoted_cents,
+                      None if record.return_of is None else record.return_of.ticket)
 
 
 class RatingsToCorrect(ReadingError):
@@ -181,7 +191,10 @@ def keep_verification(store: Store, case: CaseInView,
 
 
 def keep_close(store: Store, case: CaseInView, state: DiagnosisState, outcome: str, minutes: int,
-               fault_id: str | None) -> None:
+               fault_id: str | None, price_cents: int | None = None) -> None:
+    """Close the case with its outcome, bench minutes, confirmed fault, the final price charged
+    and the shop's labour rate now (kept with the job, so a later change of rate does not
+    change what the job cost)."""
     part = stage = None
     family = state.family
     if fault_id is not None and fault_id in {f.id for f in family.faults}:
@@ -190,4 +203,6 @@ def keep_close(store: Store, case: CaseInView, state: DiagnosisState, outcome: s
     elif fault_id is not None:
         fault_id = None  # "no fault in the supply" is not a part to count
     cases.close_case(store, case.id, outcome=outcome, bench_minutes=minutes,
-                     confirmed_fault=fault_id, confirmed_part=part, confirmed_stage=stage)
+                     confirmed_fault=fault_id, confirmed_part=part, confirmed_stage=stage,
+                     price_cents=price_cents,
+                     labour_rate_cents=shop_terms(store).labour_rate_cents)

@@ -7,7 +7,9 @@
 one kept with the case.
 Expected bands are the healthy unit's, from the fault model of the case's family and ratings.
 An amended case is told as it was closed (the old value of each field's first amendment), then
-each amendment with who, when and why; the card shows the values as they stand now.
+each amendment with who, when and why; the card shows the values as they stand now. A job that
+came back tells when and why (the customer's words at the return, and what was found then); a
+warranty return names the job it came back from.
 """
 
 from __future__ import annotations
@@ -23,9 +25,11 @@ from fixbench.knowledge import KnowledgeBase
 from fixbench.physics.ratings import describe_label, parse_ratings
 from fixbench.quantities import ReadingError
 from fixbench.store.amendments import AMENDABLE
-from fixbench.store.case_record import CaseRecord, KeptAmendment, load_case_record
+from fixbench.store.case_record import CaseRecord, KeptAmendment, LinkedJob, load_case_record
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
+from fixbench.store.shop_terms import labour_cents, shop_terms
+from fixbench.workflows.money import money_text
 from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
 SUSPECTS_SHOWN = 3
@@ -36,7 +40,7 @@ class Step:
     """One line of the timeline: when, what kind, a headline and the lines under it."""
 
     at: datetime
-    kind: str  # intake, reading, skipped, repair, verification, closed, amendment
+    kind: str  # intake, reading, skipped, repair, verification, closed, came_back, amendment
     headline: str
     details: tuple[str, ...] = ()
     in_band: bool | None = None  # readings and verifications: inside the healthy band?
@@ -58,6 +62,10 @@ class CaseStory:
     # The amendable fields as they stand now (store identifiers, not words), for the amend dialog.
     current: dict = field(default_factory=dict)
     amended: frozenset[str] = frozenset()  # fields changed by an amendment since closing
+    customer_id: int | None = None  # for the customer's other jobs
+    customer: str = ""  # the customer's name (and contact), or "" when none is kept
+    return_of: tuple[int, str] | None = None  # (case id, ticket) this job came back from
+    returns: tuple[tuple[int, str], ...] = ()  # (case id, ticket) of the jobs it came back as
 
 
 @dataclass(frozen=True)
@@ -118,7 +126,23 @@ def shown_value(names: TradeNames, family_id: str, field_name: str, value) -> st
         return family.stage(value).title if known else str(value)
     if field_name == "bench_minutes":
         return f"{value} min"
+    if field_name == "price_cents":
+        return money_text(value)
     return str(value)
+
+
+def _came_back_step(names: TradeNames, closed_at: datetime | None, later: LinkedJob) -> Step:
+    """The job came back: when, what the customer said then, and what was found."""
+    days = "" if closed_at is None else f", {(later.opened_at - closed_at).days} days after it was handed back"
+    lines = [f"The customer said: {later.notes}" if later.notes else "No complaint written down."]
+    if later.confirmed_fault:
+        lines.append("Found then: " + names.fault_label(later.confirmed_fault, later.family_id))
+    elif later.outcome:
+        lines.append("Outcome then: " + outcome_name(later.outcome))
+    else:
+        lines.append("Still in the workshop.")
+    return Step(later.opened_at, "came_back",
+                f"Came back under warranty as job {later.ticket}{days}", tuple(lines))
 
 
 def _amendment_steps(names: TradeNames, family_id: str,
@@ -160,9 +184,18 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     case = load_case_record(store, case_id)
     model = fault_model_of(kb, case)
     fam = case.family_id
-    steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician}",
-                  (f"{case.make} {case.model} ({case.kind}), {family_name(fam)}",
-                   "Label: " + describe_label(case.ratings)))]
+    terms = shop_terms(store)
+    intake_lines = [f"{case.make} {case.model} ({case.kind}), {family_name(fam)}",
+                    "Label: " + describe_label(case.ratings)]
+    if case.notes:
+        intake_lines.append(f"The customer said: {case.notes}")
+    if case.return_of is not None:
+        intake_lines.append(f"Warranty return of job {case.return_of.ticket}, handed back "
+                            f"{case.return_of.closed_at:%Y-%m-%d}")
+    if case.quoted_cents is not None:
+        intake_lines.append(f"Quoted {money_text(case.quoted_cents, terms.currency)}")
+    steps = [Step(case.opened_at, "intake", f"Taken in by {case.technician}", tuple(intake_lines))]
+    steps.extend(_came_back_step(names, case.closed_at, later) for later in case.returns)
     previous: list[str] = []
     for reading in case.readings:
         if not reading.standing:
@@ -178,16 +211,16 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                                            f"{s.probability:.0%}"
                                            for s in reading.suspects[:SUSPECTS_SHOWN])]
         if previous and ranked and ranked[0] != previous[0]:
-            lines.append(f"First suspect changed from {previous[0]} to {ranked[0]}")
+            lines.append(f"Most likely fault changed from {names.fault_label(previous[0], fam)} "
+                         f"to {names.fault_label(ranked[0], fam)}")
         previous = ranked or previous
         steps.append(Step(reading.entered_at, "reading",
                           f"{reading.seq}. {names.check(reading.check_id, fam)}",
                           tuple(lines), in_band))
     for repair in case.repairs:
         steps.append(Step(repair.done_at, "repair",
-                          f"{repair.action.capitalize()} {repair.part_id}: "
-                          f"{names.part(repair.part_id, fam)}",
-                          (f"Parts cost {repair.cost_cents / 100:.2f}",)
+                          f"{repair.action.capitalize()}: {names.part_label(repair.part_id, fam)}",
+                          (f"Parts cost {money_text(repair.cost_cents, terms.currency)}",)
                           + ((f"Fitted: {repair.value_fitted}",) if repair.value_fitted else ())
                           + ((f"Test before power-up: {'passed' if repair.test_passed else 'failed'}",)
                              if repair.test_passed is not None else ())
@@ -206,6 +239,12 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     amended = frozenset(change.field for change in case.amendments)
     if case.closed_at is not None:
         closed_lines = [f"Bench time {as_closed['bench_minutes']} min"]
+        rate = terms.labour_rate_cents if case.labour_rate_cents is None else case.labour_rate_cents
+        labour = labour_cents((as_closed["bench_minutes"] or 0) * rate)
+        closed_lines.append(
+            f"Charged {money_text(as_closed['price_cents'], terms.currency)}; parts "
+            f"{money_text(case.parts_cents, terms.currency)}, labour "
+            f"{money_text(labour, terms.currency)}")
         if as_closed["confirmed_fault"]:
             closed_lines.append("Confirmed fault: "
                                 + names.fault_label(as_closed["confirmed_fault"], fam))
@@ -219,8 +258,11 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     def card(name: str, value: str) -> str:
         return f"{value} (amended)" if value and name in amended else value
 
-    facts = (("Ticket", case.ticket),
-             ("Customer", card("customer_ref", case.customer_ref or "")),
+    customer = ""
+    if case.customer_name:
+        customer = case.customer_name + (f" ({case.customer_contact})"
+                                         if case.customer_contact else "")
+    facts = (("Ticket", case.ticket), ("Customer", customer),
              ("Technician", case.technician), ("Family", family_name(fam)),
              ("Serial", case.serial or ""),
              ("Outcome", card("outcome", outcome_name(case.outcome, case.status))),
@@ -231,12 +273,19 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                                                  case.confirmed_part))),
              ("Bench minutes", card("bench_minutes", "" if case.bench_minutes is None
                                     else str(case.bench_minutes))),
+             ("Price", card("price_cents", "" if case.price_cents is None
+                            else money_text(case.price_cents, terms.currency))),
+             ("Warranty return of", "" if case.return_of is None else case.return_of.ticket),
+             ("Came back as", ", ".join(r.ticket for r in case.returns)),
              ("Notes", card("notes", case.notes)))
     return CaseStory(case_id, case.ticket, f"{case.make} {case.model} {case.kind}", facts,
                      tuple(sorted(steps, key=lambda s: s.at)), fam, dict(case.ratings),
                      tuple((r.check_id, r.typed) for r in case.standing_readings),
                      case.top_suspect_fault, case.confirmed_fault, case.status, current,
-                     amended)
+                     amended, case.customer_id, customer,
+                     None if case.return_of is None else (case.return_of.id,
+                                                          case.return_of.ticket),
+                     tuple((r.id, r.ticket) for r in case.returns))
 
 
 def rerun_case(kb: KnowledgeBase, story: CaseStory) -> Rerun:
@@ -258,7 +307,8 @@ def rerun_case(kb: KnowledgeBase, story: CaseStory) -> Rerun:
                f"The conclusion {verdict}.")
     if story.confirmed_fault:
         right = story.confirmed_fault in today
-        summary += (f" The confirmed fault was {story.confirmed_fault}: today's engine "
+        summary += (f" The confirmed fault was "
+                    f"{names.fault_label(story.confirmed_fault, story.family_id)}: today's engine "
                     f"{'agrees' if right else 'does not name it first'}.")
     return Rerun(today, conclusion.probability, story.kept_first_suspect, story.confirmed_fault,
                  changed, tuple(skipped), summary)

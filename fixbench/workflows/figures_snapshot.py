@@ -1,23 +1,34 @@
 """Every figure the Figures screen and the monthly summary show, gathered in one pass (no widgets).
 
 The numbers are the store's SQL aggregates over the closed cases of a :class:`CaseFilter` (period,
-and optionally one family or one device model); nothing is recounted here.
+and optionally one family or one device model), a few counts that several figures share
+(:mod:`fixbench.store.chart_counts`), summed into each figure by
+:class:`fixbench.workflows.figure_tables.FigureTables`; nothing is counted twice. The backlog is
+the jobs still open at the end of the period (today for a period that runs to today).
 """
 
 from __future__ import annotations
 
 from collections.abc import Callable, Iterator
+from concurrent.futures import ThreadPoolExecutor, as_completed
 from dataclasses import dataclass
-from datetime import datetime, time, timedelta
+from datetime import date, datetime, time, timedelta
 
-from fixbench.store import owner_figures as store_figures
+from fixbench.knowledge import KnowledgeBase
+from fixbench.store import turnaround_figures as turnaround
 from fixbench.store.case_filters import CaseFilter
+from fixbench.store.chart_counts import (MINUTES_BIN, minutes_counts, model_fault_counts,
+                                         practice_by_month, rates_by_month, technician_counts,
+                                         turnaround_counts)
 from fixbench.store.database import Store
 from fixbench.store.owner_figures import Figure
-from fixbench.store.chart_counts import (confirmed_figures, minutes_distribution,
-                                           practice_by_month, rates_by_month)
+from fixbench.store.shop_terms import shop_terms
+from fixbench.workflows.figure_tables import FigureTables, minutes_figures, turnaround_figures
+from fixbench.workflows.trade_names import TradeNames
 
 TOP_BARS = 12
+AGE_BANDS = turnaround.AGE_BANDS  # the backlog's bands: (lowest day, name)
+_NONE = Figure("", (), ())
 
 
 @dataclass(frozen=True)
@@ -28,60 +39,123 @@ class FiguresSnapshot:
     rates: Figure
     minutes: Figure
     minutes_bands: Figure
+    turnaround: Figure
+    turnaround_by_month: Figure
+    backlog: Figure
     faults: Figure
     parts: Figure
     models: Figure
+    model_faults: Figure
     technicians: Figure
     first_suspect: Figure
     practice: Figure
+    comebacks_by_technician: Figure
+    comebacks_by_model: Figure
+    comebacks_by_fault: Figure
+    model_comebacks: Figure
+    money_by_month: Figure
+    money_by_model: Figure
+    money_by_fault: Figure
+    money_by_technician: Figure
+    comeback_cost: Figure
 
     def headline(self) -> dict[str, float | int | None]:
-        """The key numbers: closed, repaired, rates, median and quartiles, first-suspect hits."""
-        rates = dict(zip(self.rates.columns, self.rates.rows[0])) if self.rates.rows else {}
-        spread = dict(zip(self.minutes.columns, self.minutes.rows[0])) if self.minutes.rows else {}
-        hits = (dict(zip(self.first_suspect.columns, self.first_suspect.rows[0]))
-                if self.first_suspect.rows else {})
+        """The key numbers: closed, repaired, rates, bench minutes, turnaround, first-suspect
+        hits, revenue and margin."""
+        def first(figure: Figure) -> dict:
+            return dict(zip(figure.columns, figure.rows[0])) if figure.rows else {}
+
+        rates, spread, hits = first(self.rates), first(self.minutes), first(self.first_suspect)
+        days = first(self.turnaround)
+        money = [row for row in self.money_by_month.rows]
         return {"closed": rates.get("closed", 0), "repaired": rates.get("repaired", 0),
                 "first_time_fix_rate": rates.get("first_time_fix_rate"),
                 "comeback_rate": rates.get("comeback_rate"),
                 "median_minutes": spread.get("median_minutes"),
                 "p25_minutes": spread.get("p25_minutes"), "p75_minutes": spread.get("p75_minutes"),
+                "median_turnaround_days": _days(days.get("median_hours")),
                 "first_suspect_rate": hits.get("hit_rate"),
-                "first_suspect_confirmed": hits.get("confirmed", 0)}
+                "first_suspect_confirmed": hits.get("confirmed", 0),
+                "revenue_cents": sum(row[3] for row in money),
+                "margin_cents": sum(row[6] for row in money),
+                "open_jobs": sum(row[1] for row in self.backlog.rows)}
 
 
-def figure_queries(store: Store, scope: CaseFilter) -> list[Callable[[], dict[str, Figure]]]:
+def _days(hours: float | None) -> float | None:
+    return None if hours is None else hours / 24
+
+
+def _end_of(scope: CaseFilter) -> datetime:
+    """The moment the period ends: midnight after its last day, or now for an open-ended one."""
+    if scope.until is None:
+        return datetime.now()
+    return datetime.combine(scope.until + timedelta(days=1), time())
+
+
+def figure_queries(store: Store, knowledge: KnowledgeBase, scope: CaseFilter
+                   ) -> list[Callable[[], dict[str, Figure]]]:
     """The queries for ``scope``, each giving one or more named figures, the screen's first page
-    first. Faults, parts and first-suspect hits come from one count of the confirmed cases."""
+    first."""
     period = scope.closed()
+    names = TradeNames(knowledge)
+    rate = shop_terms(store).labour_rate_cents
     since = None if scope.since is None else datetime.combine(scope.since, time())
-    until = None if scope.until is None else datetime.combine(scope.until + timedelta(days=1),
-                                                              time())
+    until = None if scope.until is None else _end_of(scope)
 
-    def confirmed() -> dict[str, Figure]:
-        faults, parts, first_suspect = confirmed_figures(store, period)
-        return {"faults": _top(faults), "parts": _top(parts), "first_suspect": first_suspect}
+    def months() -> dict[str, Figure]:
+        monthly = rates_by_month(store, period, rate)
+        tables = FigureTables(names, _NONE, _NONE, monthly)
+        return {"rates_by_month": monthly, "money_by_month": tables.money_by("month"),
+                "comeback_cost": tables.comeback_cost()}
+
+    def model_fault() -> dict[str, Figure]:
+        tables = FigureTables(names, model_fault_counts(store, period, rate), _NONE, _NONE)
+        return {"faults": _top(tables.by_what("fault")), "parts": _top(tables.by_what("part")),
+                "first_suspect": tables.first_suspect(), "models": _top(tables.models()),
+                "model_faults": tables.model_faults(),
+                "comebacks_by_model": _top(tables.comebacks_by("model")),
+                "comebacks_by_fault": _top(tables.comebacks_by("fault")),
+                "model_comebacks": tables.model_comebacks(),
+                "money_by_model": _top(tables.money_by("model")),
+                "money_by_fault": _top(tables.money_by("fault"))}
+
+    def minutes_and_people() -> dict[str, Figure]:
+        counted = minutes_figures(minutes_counts(store, period),
+                                  technician_counts(store, period, rate), MINUTES_BIN)
+        tables = FigureTables(names, _NONE, counted["technicians"], _NONE)
+        return {**counted, "comebacks_by_technician": tables.comebacks_by("technician"),
+                "money_by_technician": tables.money_by("technician")}
+
+    def backlog() -> dict[str, Figure]:
+        open_scope = scope.updated(since=None, until=None).where()
+        return {"backlog": turnaround.backlog_by_age(store, _end_of(scope), open_scope)}
 
     return [
-        lambda: {"rates_by_month": rates_by_month(store, period)},
-        lambda: {"minutes_bands": minutes_distribution(store, period)},
-        lambda: {"minutes": store_figures.bench_minutes(store, period)},
-        confirmed,
-        lambda: {"models": _top(store_figures.cases_by_model(store, period))},
-        lambda: {"technicians": store_figures.per_technician(store, period)},
+        model_fault,  # the longest first, beside the others on the second thread
+        months,
+        minutes_and_people,
+        lambda: turnaround_figures(turnaround_counts(store, period)),
+        backlog,
         lambda: {"practice": practice_by_month(store, since, until)},
     ]
 
 
-def count_figures(store: Store, scope: CaseFilter) -> Iterator[tuple[str, Figure]]:
-    """Each figure of ``scope`` as soon as it is counted, one query after another.
+COUNTING_THREADS = 2  # a bench PC has two cores or more; more threads would only queue
 
-    One after another on purpose, in the screen's order, so each chart is drawn as soon as its
-    figure is in and the first page fills first (the queries are plain reads through
-    :meth:`fixbench.store.database.Store.read_connection`, which never wait for a bench's write).
+
+def count_figures(store: Store, knowledge: KnowledgeBase,
+                  scope: CaseFilter) -> Iterator[tuple[str, Figure]]:
+    """Each figure of ``scope`` as soon as it is counted, two queries at a time.
+
+    Started in the screen's order, so the first page fills first, and handed over as each is
+    done, so each chart is drawn as soon as its figure is in. The queries are plain reads through
+    :meth:`fixbench.store.database.Store.read_connection` on connections of their own: SQLite's
+    readers (WAL) and PostgreSQL's run side by side and never wait for a bench's write.
     """
-    for query in figure_queries(store, scope):
-        yield from query().items()
+    queries = figure_queries(store, knowledge, scope)
+    with ThreadPoolExecutor(COUNTING_THREADS, thread_name_prefix="figures") as pool:
+        for done in as_completed([pool.submit(query) for query in queries]):
+            yield from done.result().items()
 
 
 def snapshot_of(scope: CaseFilter, counted: dict[str, Figure]) -> FiguresSnapshot:
@@ -91,9 +165,9 @@ def snapshot_of(scope: CaseFilter, counted: dict[str, Figure]) -> FiguresSnapsho
                            **counted)
 
 
-def compute_figures(store: Store, scope: CaseFilter) -> FiguresSnapshot:
+def compute_figures(store: Store, knowledge: KnowledgeBase, scope: CaseFilter) -> FiguresSnapshot:
     """Every figure for ``scope`` at once."""
-    return snapshot_of(scope, dict(count_figures(store, scope)))
+    return snapshot_of(scope, dict(count_figures(store, knowledge, scope)))
 
 
 def _volume(monthly: Figure) -> Figure:
@@ -124,3 +198,19 @@ def percent(value: float | None) -> str:
 
 def minutes_text(value: float | None) -> str:
     return "-" if value is None else f"{value:g} min"
+
+
+def days_text(value: float | None) -> str:
+    return "-" if value is None else f"{value:.1f} days"
+
+
+def score_text(value: float | None) -> str:
+    """A practice score as practice gives it: out of 100."""
+    return "-" if value is None else f"{value:.0f} of 100"
+
+
+def twelve_months_to(last: date) -> CaseFilter:
+    """The twelve calendar months up to ``last``: from the first day of the month eleven months
+    before to ``last`` (a year of months, the last one as far as ``last``)."""
+    start = date(last.year - 1, last.month + 1, 1) if last.month < 12 else date(last.year, 1, 1)
+    return CaseFilter(since=start, until=last)

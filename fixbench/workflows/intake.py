@@ -1,5 +1,6 @@
 """Intake: reading the label ratings as typed, what the shop's record offers to complete the form
-from, and opening the case with its symptoms as the first readings.
+from (models and customers seen before), whether the unit is a warranty return, and opening the
+case with its customer, its quoted price and its symptoms as the first readings.
 
 Ratings are read by the one ratings parser, :func:`fixbench.physics.ratings.parse_ratings`: a
 single field is read by giving the parser a reference label with that one field replaced, so the
@@ -10,6 +11,7 @@ everywhere). Everything that touches the database here runs off the GUI thread.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from datetime import datetime
 
 from fixbench.engine import start_diagnosis
 from fixbench.knowledge import KnowledgeBase
@@ -17,15 +19,21 @@ from fixbench.physics.ratings import UNIVERSAL_WORDS, parse_ratings
 from fixbench.quantities import ReadingError
 from fixbench.store import StoreInputError, cases, people, priors
 from fixbench.store.case_record import load_case_record
+from fixbench.store.cases import utc_now
+from fixbench.store.customers import CustomerRow, customers_like, find_or_add_customer
 from fixbench.store.database import Store
-from fixbench.store.intake_lookups import KnownModel, find_device, known_models, ticket_taken
+from fixbench.store.intake_lookups import (EarlierJob, KnownModel, earlier_job_under_warranty,
+                                           find_device, known_customer, known_models,
+                                           ticket_taken)
+from fixbench.store.shop_terms import shop_terms
 from fixbench.workflows.bench import Loaded, case_view, keep, warm
 
 # A label every rule of the parser accepts, to read one typed field against.
 REFERENCE_LABEL = {"mains": "230 V", "output": "5 V", "current": "1 A"}
 
-__all__ = ["REFERENCE_LABEL", "IntakeForm", "KnownModel", "TicketInUse", "is_universal",
-           "known_models", "label_ratings", "open_new_case", "read_rating_field", "ticket_in_use"]
+__all__ = ["REFERENCE_LABEL", "CustomerRow", "EarlierJob", "IntakeForm", "KnownModel",
+           "TicketInUse", "customers_like", "is_universal", "known_models", "label_ratings",
+           "open_new_case", "read_rating_field", "ticket_in_use", "warranty_check"]
 
 
 class TicketInUse(StoreInputError):
@@ -43,6 +51,20 @@ class IntakeForm:
     ratings: dict[str, str]
     symptoms: tuple[str, ...]  # checks answered "yes" at intake (reported or seen)
     notes: str = ""
+    customer_name: str = ""  # optional, with how to reach them
+    customer_contact: str = ""
+    quoted_cents: int | None = None  # the price quoted at the counter
+
+
+def warranty_check(store: Store, make: str, model: str, serial: str, customer_name: str,
+                   customer_contact: str, at: datetime | None = None) -> EarlierJob | None:
+    """The repaired job this unit would be kept as a warranty return of, if opened now: the same
+    unit (by serial), or the same customer's unit of that make and model, back within the shop's
+    comeback window."""
+    customer_id = known_customer(store, customer_name, customer_contact.strip() or None)
+    return earlier_job_under_warranty(store, make=make, model=model, serial=serial,
+                                      customer_id=customer_id, at=at or utc_now(),
+                                      window_days=shop_terms(store).comeback_days)
 
 
 def read_rating_field(key: str, text: str) -> str:
@@ -87,16 +109,32 @@ def open_new_case(store: Store, knowledge: KnowledgeBase, technician_id: int,
     # output below its reference) are refused here, not kept as a case that never opens.
     state = start_diagnosis(family, parse_ratings(form.ratings),
                             priors.confirmed_fault_counts(store, family.id))
+    terms = shop_terms(store)
+    now = utc_now()
+    customer_id = (find_or_add_customer(store, form.customer_name,
+                                        form.customer_contact.strip() or None, at=now)
+                   if form.customer_name.strip() else None)
     device_id = find_device(store, form.make, form.model, form.serial)
+    if device_id is None and not form.serial.strip():
+        # An unnumbered unit of a customer's model back within the window is that unit again.
+        earlier = earlier_job_under_warranty(store, make=form.make, model=form.model, serial="",
+                                             customer_id=customer_id, at=now,
+                                             window_days=terms.comeback_days)
+        device_id = None if earlier is None else earlier.device_id
     if device_id is None:
         device_id = people.add_device(store, make=form.make.strip(), model=form.model.strip(),
                                       kind=form.kind, label_ratings=form.ratings,
                                       serial=form.serial.strip() or None)
     case_id = cases.open_case(store, ticket_ref=form.ticket.strip(), device_id=device_id,
                               technician_id=technician_id, family_id=family.id,
-                              ratings=form.ratings, notes=form.notes)
+                              ratings=form.ratings, notes=form.notes, customer_id=customer_id,
+                              quoted_cents=form.quoted_cents, opened_at=now,
+                              comeback_days=terms.comeback_days)
     for check_id in form.symptoms:
         state = warm(state.with_reading(check_id, "yes"))
         keep(store, case_id, state.readings[-1], state)
     record = load_case_record(store, case_id)
-    return Loaded(case_view(record, family), warm(state), notice="Case opened.")
+    notice = "Case opened."
+    if record.return_of is not None:
+        notice += f" Kept as a warranty return of job {record.return_of.ticket}."
+    return Loaded(case_view(record, family), warm(state), notice=notice)

@@ -1,5 +1,6 @@
 """The shop as a whole: opening its database (with the rolling backup first), the demo shop, who
-works at the bench, the shop's settings and the owner's passphrase, and the cases still open.
+works at the bench, the shop's settings (report footer, terms of business: labour rate, currency,
+tax wording, comeback window) and the owner's passphrase, and the cases still open.
 
 The window opens the shop off the GUI thread; the rest are short queries and writes.
 """
@@ -8,19 +9,22 @@ from __future__ import annotations
 
 from fixbench.store import Store, open_store
 from fixbench.store.backup import backup_if_due
-from fixbench.store.case_list import OpenCaseRow, case_count, open_case_count, open_cases
+from fixbench.store.case_list import (OpenCaseRow, case_count, open_case_count, open_case_with_ticket,
+                                      open_cases)
 from fixbench.store.location import demo_working_copy, resolve_url, sqlite_path
 from fixbench.store.owner import has_owner_passphrase, set_owner_passphrase
 from fixbench.store.people import add_technician, technicians
 from fixbench.store.shop_settings import get_setting, set_setting
+from fixbench.store.shop_terms import ShopTerms, set_shop_terms, shop_terms
 from fixbench.workflows.reports import set_shop_footer, shop_footer
 
 LAST_AT_BENCH = "bench_last_technician"  # shop setting: who was last at the bench
 
-__all__ = ["OpenCaseRow", "Store", "add_person", "bench_people", "has_owner_passphrase",
-           "has_records", "last_at_bench", "open_case_count", "open_cases", "open_demo_shop",
-           "open_shop", "remember_at_bench", "set_owner_passphrase", "set_shop_footer",
-           "shop_footer"]
+__all__ = ["OpenCaseRow", "ShopTerms", "Store", "add_person", "bench_people",
+           "has_owner_passphrase", "has_records", "last_at_bench", "open_case_count", "open_cases",
+           "open_case_with_ticket",
+           "open_demo_shop", "open_shop", "remember_at_bench", "set_owner_passphrase",
+           "set_shop_footer", "set_shop_terms", "shop_footer", "shop_terms"]
 
 
 def open_shop(db: str | None) -> Store:

@@ -35,6 +35,11 @@ class TradeNames:
 
     def __init__(self, knowledge: KnowledgeBase) -> None:
         self.knowledge = knowledge
+        # (family, id) -> title, read once: the figures label tens of thousands of counted rows.
+        self._faults = {(family.id, f.id): f.title for family in knowledge.families.values()
+                        for f in family.faults}
+        self._parts = {(family.id, p.id): p.title for family in knowledge.families.values()
+                       for p in family.parts}
 
     def _family(self, family_id: str | None):
         return self.knowledge.families.get(family_id) if family_id else None
@@ -44,27 +49,35 @@ class TradeNames:
             return ""
         if fault_id == "no_fault":
             return "No fault in the supply"
-        families = [self._family(family_id)] if family_id else list(self.knowledge.families.values())
-        for family in families:
-            if family is not None and fault_id in {f.id for f in family.faults}:
-                return family.fault(fault_id).title
-        return fault_id
+        families = [family_id] if family_id else list(self.knowledge.families)
+        return next((self._faults[(f, fault_id)] for f in families
+                     if (f, fault_id) in self._faults), fault_id)
 
     def fault_label(self, fault_id: str | None, family_id: str | None = None) -> str:
-        """Short form for a table cell or a chart bar: 'Q1.short: MOSFET shorted drain to source'."""
+        """What a fault is, for a table cell or a chart bar: its title in its family ("Switching
+        MOSFET shorted"); an id this build no longer knows is shown with its family."""
         if not fault_id:
             return ""
         title = self.fault(fault_id, family_id)
-        return title if title == fault_id else f"{fault_id}: {title}"
+        if title == fault_id and family_id:
+            return f"{fault_id} ({family_name(family_id)})"
+        return title
+
+    def part_label(self, part_id: str | None, family_id: str | None) -> str:
+        """What a part is in its family ("Switching MOSFET", "Switching transistor")."""
+        if not part_id:
+            return ""
+        title = self.part(part_id, family_id)
+        if title == part_id and family_id:
+            return f"{part_id} ({family_name(family_id)})"
+        return title
 
     def part(self, part_id: str | None, family_id: str | None = None) -> str:
         if not part_id:
             return ""
-        families = [self._family(family_id)] if family_id else list(self.knowledge.families.values())
-        for family in families:
-            if family is not None and part_id in {p.id for p in family.parts}:
-                return family.part(part_id).title
-        return part_id
+        families = [family_id] if family_id else list(self.knowledge.families)
+        return next((self._parts[(f, part_id)] for f in families
+                     if (f, part_id) in self._parts), part_id)
 
     def check(self, check_id: str, family_id: str) -> str:
         family = self._family(family_id)
