@@ -5,10 +5,11 @@ The texts are the engine's own (fixbench.engine.cautions); they come back on eve
 
 from __future__ import annotations
 
+from PySide6.QtCore import Signal
 from PySide6.QtWidgets import QCheckBox, QHBoxLayout, QLabel, QPushButton, QVBoxLayout, QWidget
 
 from fixbench.engine import cautions
-from fixbench.ui.bench.look import CAUTION_HUE, banner, heading, scaled_font
+from fixbench.ui.bench.look import CAUTION_HUE, banner, bind_keys, heading, scaled_font
 
 ISOLATION = ("Use an isolation transformer between the wall and the unit for every live step, and "
              "keep a series lamp in line until a short on the primary has been ruled out.")
@@ -18,6 +19,8 @@ OWN_JUDGEMENT = ("fixbench suggests steps; it does not supervise them. Your loca
 
 
 class CautionsPanel(QWidget):
+    ticket_wanted = Signal()  # print the intake ticket of the case just opened
+
     def __init__(self, controller, parent=None) -> None:
         super().__init__(parent)
         self.controller = controller
@@ -45,11 +48,18 @@ class CautionsPanel(QWidget):
         self.message = QLabel()
         self.accept_button.setText("Start the guided checks (Enter)")
         self.back_button = QPushButton("Back to open cases (Esc)")
+        self.ticket_button = QPushButton("Print the intake ticket (Ctrl+P)")
+        self.ticket_button.setToolTip("A label for the unit: ticket, unit, complaint, date and a "
+                                      "code the bench scans to open the case")
+        self.ticket_button.setAutoDefault(False)
+        self.ticket_button.clicked.connect(self.ticket_wanted)
+        bind_keys(self.ticket_button, "Ctrl+P")
         self.confirm.setFont(scaled_font(self.confirm, 1.15))
         buttons = QHBoxLayout()
         buttons.addWidget(self.accept_button)
         buttons.addWidget(self.back_button)
         buttons.addStretch(1)
+        buttons.addWidget(self.ticket_button)
         layout = QVBoxLayout(self)
         layout.addWidget(box)
         layout.addWidget(self.confirm)

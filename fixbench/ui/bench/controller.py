@@ -231,9 +231,11 @@ class BenchController(QObject):
     def go_close(self) -> None:
         self.page_wanted.emit("close")
 
-    def close_case(self, outcome: str, minutes: int, fault_id: str | None) -> None:
+    def close_case(self, outcome: str, minutes: int, fault_id: str | None,
+                   price_cents: int | None = None) -> None:
         case, store, state = self.view.case, self.context.store, self.view.state
-        self._queue(lambda: bench.keep_close(store, case, state, outcome, minutes, fault_id),
+        self._queue(lambda: bench.keep_close(store, case, state, outcome, minutes, fault_id,
+                                             price_cents),
                     lambda _none: self.back_to_cases())
 
     def minutes_so_far(self) -> int:

@@ -1,5 +1,7 @@
-"""Intake: ticket, the unit (make and model completing from the shop's history), its supply family,
-its label ratings typed with units, and the symptoms reported or seen.
+"""Intake: ticket, the customer (optional: name and contact, completing from the customers seen
+before), the unit (make and model completing from the shop's history), the price quoted, its
+supply family, its label ratings typed with units, and the symptoms reported or seen. A unit back
+within the shop's comeback window is named as a warranty return before the case is opened.
 
 Enter in a field that reads correctly moves to the next one; Ctrl+Enter opens the case from
 anywhere; Esc goes back to the open cases. A field that does not read gets its message under it and
@@ -12,19 +14,21 @@ from __future__ import annotations
 
 import re
 
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QStringListModel, Qt, QTimer
 from PySide6.QtGui import QKeySequence, QShortcut
 from PySide6.QtWidgets import (QCheckBox, QComboBox, QCompleter, QFormLayout, QGridLayout, QGroupBox,
                                QHBoxLayout, QLabel, QLineEdit, QPushButton, QScrollArea,
                                QVBoxLayout, QWidget)
 
 from fixbench.quantities import ReadingError
+from fixbench.store.errors import StoreInputError
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.family_choice import FamilyChoice
 from fixbench.ui.bench.look import heading
 from fixbench.ui.workers import run_in_background
-from fixbench.workflows.intake import (IntakeForm, known_models, label_ratings, read_rating_field,
-                                       ticket_in_use)
+from fixbench.workflows.intake import (IntakeForm, customers_like, known_models, label_ratings,
+                                       read_rating_field, ticket_in_use, warranty_check)
+from fixbench.workflows.money import read_amount
 
 KINDS = ("phone charger", "USB wall adapter", "laptop adapter", "appliance adapter", "other")
 # rating key -> (label, unit, placeholder, required)
@@ -56,11 +60,33 @@ def rating_check(key: str, required: bool):
     return check
 
 
+def _amount_check(text: str) -> int | None:
+    try:
+        return read_amount(text)
+    except StoreInputError as err:
+        raise ValueError(str(err)) from None
+
+
 class IntakePanel(QWidget):
     def __init__(self, controller, parent=None) -> None:
         super().__init__(parent)
         self.controller = controller
         self.ticket = CheckedField("ticket reference, e.g. BW-2291", self._ticket_check)
+        self.customer = CheckedField("customer's name (optional)")
+        self.contact = CheckedField("phone or e-mail (optional)")
+        self.quote = CheckedField("price quoted, e.g. 35 (optional)", _amount_check)
+        self.customer_list = QStringListModel(self)
+        completer = QCompleter(self.customer_list, self)
+        completer.setCaseSensitivity(Qt.CaseSensitivity.CaseInsensitive)
+        completer.setFilterMode(Qt.MatchFlag.MatchContains)
+        completer.activated.connect(self._customer_chosen)
+        self.customer.edit.setCompleter(completer)
+        self._customer_rows: dict[str, object] = {}
+        self._customer_typing = QTimer(self, singleShot=True, interval=250)
+        self._customer_typing.timeout.connect(self._look_up_customers)
+        self.customer.edit.textEdited.connect(lambda _t: self._customer_typing.start())
+        self.warranty_note = QLabel()
+        self.warranty_note.setWordWrap(True)
         self.make = CheckedField("make", _required("the make"))
         self.model = CheckedField("model", _required("the model"))
         self.serial = CheckedField("serial (optional: links a unit that comes back)")
@@ -84,14 +110,19 @@ class IntakePanel(QWidget):
         self._fill_wanted = False
         self._load_known_models()
         self.model.edit.editingFinished.connect(self._fill_from_history)
+        for field in (self.model, self.serial, self.customer, self.contact):
+            field.edit.editingFinished.connect(self._check_warranty)
         self.ticket.accepted.connect(self._check_ticket_in_use)
         controller.ticket_refused.connect(self._ticket_refused)
 
         unit_form = QFormLayout()
-        for label, widget in (("Ticket", self.ticket), ("Make", self.make), ("Model", self.model),
-                              ("Serial", self.serial), ("Kind", self.kind)):
+        for label, widget in (("Ticket", self.ticket), ("Customer", self.customer),
+                              ("Contact", self.contact), ("Make", self.make), ("Model", self.model),
+                              ("Serial", self.serial), ("Kind", self.kind),
+                              ("Price quoted", self.quote)):
             unit_form.addRow(label, widget)
         unit_form.addRow("", self.filled_note)
+        unit_form.addRow("", self.warranty_note)
         ratings_form = QFormLayout()
         for key, label, unit, _p, required in RATING_FIELDS:
             ratings_form.addRow(f"{label} ({unit}){'' if required else ''}", self.ratings[key])
@@ -133,7 +164,8 @@ class IntakePanel(QWidget):
         layout.addWidget(scroll, 1)
         layout.addLayout(buttons)
 
-        self.order = [self.ticket, self.make, self.model, self.serial] + [self.ratings[k] for k, *_ in RATING_FIELDS]
+        self.order = ([self.ticket, self.customer, self.contact, self.make, self.model, self.serial,
+                       self.quote] + [self.ratings[k] for k, *_ in RATING_FIELDS])
         for i, field in enumerate(self.order):
             field.accepted.connect(lambda _v, i=i: self._advance(i))
             field.escaped.connect(controller.back_to_cases)
@@ -181,6 +213,50 @@ class IntakePanel(QWidget):
 
     def _lookup_failed(self, err: Exception) -> None:
         self.message.setText(f"\u26a0 The shop's record could not be read: {err}")
+
+    def _look_up_customers(self) -> None:
+        """Offer the customers seen before whose name or contact holds what is typed (off the
+        GUI thread)."""
+        typed = self.customer.text().strip()
+        if len(typed) < 2:
+            return
+        store = self.controller.context.store
+
+        def offer(rows) -> None:
+            self._customer_rows = {row.label: row for row in rows}
+            self.customer_list.setStringList(list(self._customer_rows))
+
+        run_in_background(lambda: customers_like(store, typed), offer, self._lookup_failed)
+
+    def _customer_chosen(self, label: str) -> None:
+        row = self._customer_rows.get(label)
+        if row is not None:
+            self.customer.set_text(row.name)
+            self.contact.set_text(row.contact or "")
+            self._check_warranty()
+
+    def _check_warranty(self) -> None:
+        """Say, before the case is opened, that the unit is back under warranty (off the GUI
+        thread; opening the case makes the same link by the same rule)."""
+        make, model = self.make.text().strip(), self.model.text().strip()
+        if not (make and model):
+            self.warranty_note.clear()
+            return
+        store = self.controller.context.store
+        serial, name, contact = self.serial.text(), self.customer.text(), self.contact.text()
+
+        def shown(earlier) -> None:
+            if earlier is None:
+                self.warranty_note.clear()
+                return
+            how = "this unit" if earlier.same_unit else "this customer's unit of this model"
+            self.warranty_note.setText(
+                f"\u21ba Warranty return: {how} was repaired as job {earlier.ticket}, handed back "
+                f"{earlier.days_since} days ago. The case will be kept as its return; the quote "
+                "is normally nothing.")
+
+        run_in_background(lambda: warranty_check(store, make, model, serial, name, contact),
+                          shown, self._lookup_failed)
 
     def _advance(self, i: int) -> None:
         if i + 1 < len(self.order):
@@ -231,6 +307,7 @@ class IntakePanel(QWidget):
             field.set_text("")
         self.notes.clear()
         self.filled_note.clear()
+        self.warranty_note.clear()
         self.message.clear()
         self.known, self._fill_wanted = None, False
         self._load_known_models()
@@ -269,7 +346,9 @@ class IntakePanel(QWidget):
         return IntakeForm(self.ticket.text().strip(), self.make.text().strip(), self.model.text().strip(),
                           self.serial.text().strip(), self.kind.currentText(), family_id, ratings,
                           tuple(cid for cid, box in self.symptoms.items() if box.isChecked()),
-                          self.notes.text().strip())
+                          self.notes.text().strip(), customer_name=self.customer.text().strip(),
+                          customer_contact=self.contact.text().strip(),
+                          quoted_cents=self.quote.value())
 
     def submit(self) -> None:
         form = self.form()

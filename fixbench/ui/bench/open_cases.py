@@ -1,15 +1,16 @@
 """The cases still open, listed when the bench starts: Enter resumes the highlighted one, Ctrl+N
-starts a new one. The model reads one page at a time from SQL (newest first) and fetches more as
-the list is scrolled."""
+starts a new one, and a ticket typed or scanned (the code on the intake ticket types it like a
+keyboard) opens its case. The model reads one page at a time from SQL (newest first) and fetches
+more as the list is scrolled."""
 
 from __future__ import annotations
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
-from PySide6.QtWidgets import (QAbstractItemView, QHBoxLayout, QHeaderView, QLabel, QPushButton,
-                               QTableView, QVBoxLayout, QWidget)
+from PySide6.QtWidgets import (QAbstractItemView, QHBoxLayout, QHeaderView, QLabel, QLineEdit,
+                               QPushButton, QTableView, QVBoxLayout, QWidget)
 
 from fixbench.ui.bench.look import bind_keys, heading
-from fixbench.workflows.shop import OpenCaseRow, open_case_count, open_cases
+from fixbench.workflows.shop import OpenCaseRow, open_case_count, open_case_with_ticket, open_cases
 
 TICKET, UNIT, FAMILY, STATUS, READINGS, TECHNICIAN, OPENED = range(7)
 HEADERS = ("Ticket", "Unit", "Family", "Where it is", "Readings", "Technician", "Opened")
@@ -103,9 +104,14 @@ class OpenCasesPanel(QWidget):
         self.new_button.setToolTip("Start the intake of a unit")
         self.new_button.clicked.connect(controller.new_case)
         bind_keys(self.new_button, "Ctrl+N")
+        self.scan = QLineEdit(placeholderText="scan or type a ticket, then Enter")
+        self.scan.setAccessibleName("Ticket to open")
+        self.scan.setMaximumWidth(280)
+        self.scan.returnPressed.connect(self.open_scanned)
         top = QHBoxLayout()
         top.addWidget(heading("Open cases", factor=1.35))
         top.addStretch(1)
+        top.addWidget(self.scan)
         top.addWidget(self.new_button)
         self.empty_offer = QWidget()  # filled by the screen when the shop has no records yet
         self.empty_offer.setVisible(False)
@@ -115,6 +121,20 @@ class OpenCasesPanel(QWidget):
         layout.addWidget(self.table, 1)
         layout.addWidget(self.count)
         self.setFocusProxy(self.table)
+
+    def open_scanned(self) -> None:
+        """Resume the open case whose ticket was scanned or typed."""
+        ticket = self.scan.text().strip()
+        if not ticket:
+            return
+        case_id = open_case_with_ticket(self.controller.context.store, ticket)
+        if case_id is None:
+            self.count.setText(f"\u26a0 No open case has ticket {ticket}: it may be closed "
+                               "(see History) or typed differently.")
+            self.scan.selectAll()
+            return
+        self.scan.clear()
+        self.controller.resume(case_id)
 
     def refresh(self) -> None:
         self.model.refresh()

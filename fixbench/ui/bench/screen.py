@@ -19,6 +19,8 @@ from fixbench.ui.bench.repair import RepairPanel
 from fixbench.ui.bench.technician import TechnicianPicker
 from fixbench.ui.bench.verify_close import ClosePanel, VerifyPanel
 from fixbench.ui.context import AppContext
+from fixbench.ui.workers import run_in_background
+from fixbench.workflows.intake_ticket import intake_ticket
 
 
 class BenchScreen(QWidget):
@@ -74,6 +76,7 @@ class BenchScreen(QWidget):
         c.ratings_to_correct.connect(self._correct_ratings)
         c.busy_changed.connect(lambda busy: self.busy.setText("saving\u2026" if busy else "all steps saved"))
         self.panels["guided"].card.field.escaped.connect(self._escape_from_step)
+        self.panels["cautions"].ticket_wanted.connect(self.print_intake_ticket)
         self.panels["cases"].refresh()
         self.show_page("cases")
 
@@ -136,6 +139,32 @@ class BenchScreen(QWidget):
             field.set_text("")
         else:
             self.controller.back_to_cases()
+
+    # --- the intake ticket ------------------------------------------------------------------------
+
+    def print_intake_ticket(self, path: str | None = None) -> None:
+        """Print the open case's ticket (Qt's print dialog), or write it to ``path`` as a PDF."""
+        case = self.controller.view.case
+        if case is None:
+            return
+        store = self.context.store
+
+        def printed(ticket) -> None:
+            from fixbench.ui.bench.ticket_print import print_ticket, write_ticket_pdf
+
+            try:
+                if path is not None:
+                    write_ticket_pdf(ticket, path)
+                elif not print_ticket(self, ticket):
+                    return
+            except (OSError, ValueError) as err:
+                self._status(f"\u26a0 The ticket was not printed: {err}", error=True)
+                return
+            self._status(f"Intake ticket {ticket.ticket} printed.")
+
+        run_in_background(lambda: intake_ticket(store, case.id), printed,
+                          lambda err: self._status(f"\u26a0 The ticket was not printed: {err}",
+                                                   error=True))
 
     # --- first start ---------------------------------------------------------------------------
 

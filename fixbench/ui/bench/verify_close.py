@@ -1,5 +1,5 @@
 """Verification after the repair (the readings a repaired unit must give, each marked as it is
-typed) and closing the case with its outcome."""
+typed) and closing the case with its outcome, bench minutes and the final price charged."""
 
 from __future__ import annotations
 
@@ -7,7 +7,9 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (QComboBox, QFormLayout, QHBoxLayout, QLabel, QListWidget, QPushButton,
                                QVBoxLayout, QWidget)
 
+from fixbench.store.errors import StoreInputError
 from fixbench.workflows import step_wording as wording
+from fixbench.workflows.money import read_amount
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.step_card import OUTCOME_WORDS as OUTCOME_WORDS_SHOWN
 from fixbench.ui.bench.look import BIG, SUSPECT_HUE, banner, bind_keys, heading, scaled_font
@@ -99,7 +101,7 @@ class VerifyPanel(QWidget):
             self.list.addItem(f"{step.title}: {shown}{mark}")
         step = self._current(view)
         if step is None:
-            self.title.setText("Every verification reading is in band")
+            self.title.setText("Every verification reading is as a good unit reads")
             self.where.setText("Close the case with its outcome (Alt+L).")
             self.expected.setText("")
             self.field.setEnabled(False)
@@ -116,8 +118,9 @@ class VerifyPanel(QWidget):
             self.field.set_text("")
         last = view.last_verification
         if last is not None:
-            self.result.setText(f"\u2714 {last.shown()} in band" if last.in_band else
-                                f"\u2716 {last.shown()} OUT OF BAND: the repair is not proven")
+            self.result.setText(f"\u2714 {last.shown()}: as a good unit reads" if last.in_band else
+                                f"\u2716 {last.shown()}: NOT as a good unit reads; the repair "
+                                "is not proven")
         else:
             self.result.setText("")
         self.close_button.setEnabled(True)
@@ -133,6 +136,13 @@ class VerifyPanel(QWidget):
             self.field.show_message(str(err))
 
 
+def parse_price(text: str) -> int | None:
+    try:
+        return read_amount(text)
+    except StoreInputError as err:
+        raise ValueError(str(err)) from None
+
+
 class ClosePanel(QWidget):
     def __init__(self, controller, parent=None) -> None:
         super().__init__(parent)
@@ -144,6 +154,9 @@ class ClosePanel(QWidget):
         self.minutes = CheckedField("bench minutes", parse_minutes)
         self.minutes.accepted.connect(lambda _v: self.submit())
         self.minutes.escaped.connect(lambda: controller.page_wanted.emit("verify"))
+        self.price = CheckedField("final price charged, e.g. 35 (empty: not known)", parse_price)
+        self.price.accepted.connect(lambda _v: self.submit())
+        self.price.escaped.connect(lambda: controller.page_wanted.emit("verify"))
         self.summary = QLabel()
         self.summary.setWordWrap(True)
         self.close_button = QPushButton("Close the case")
@@ -153,6 +166,7 @@ class ClosePanel(QWidget):
         form.addRow("Outcome", self.outcome)
         form.addRow("Fault confirmed", self.fault)
         form.addRow("Bench minutes", self.minutes)
+        form.addRow("Price charged", self.price)
         layout = QVBoxLayout(self)
         layout.addWidget(heading("Close the case", factor=1.35))
         layout.addWidget(self.summary)
@@ -166,18 +180,25 @@ class ClosePanel(QWidget):
             return
         passed = sum(1 for v in view.verifications if v.passed)
         failed = sum(1 for v in view.verifications if not v.passed)
-        self.summary.setText(f"{len(view.repairs)} repair lines, {passed} verification readings in band, "
-                             f"{failed} out of band.")
+        self.summary.setText(f"{len(view.repairs)} repair lines, {passed} verification readings "
+                             f"as a good unit reads, {failed} not.")
         self.fault.clear()
         for s in view.state.suspects[:6]:
             self.fault.addItem(f"{s.title} ({s.probability:.0%})", s.fault)
         self.fault.addItem("None confirmed", None)
         self.minutes.set_text(str(self.controller.minutes_so_far()))
         self.minutes.edit.selectAll()
+        expected = view.case.expected_price
+        self.price.set_text("" if expected is None else f"{expected / 100:.2f}")
+        if view.case.return_of is not None:
+            self.summary.setText(self.summary.text() + f" A warranty return of job "
+                                                       f"{view.case.return_of}: normally free.")
 
     def submit(self) -> None:
         try:
             minutes = self.minutes.value()
+            price = self.price.value()
         except ValueError:
             return
-        self.controller.close_case(self.outcome.currentData(), minutes, self.fault.currentData())
+        self.controller.close_case(self.outcome.currentData(), minutes, self.fault.currentData(),
+                                   price)

@@ -1,4 +1,5 @@
-"""The owner's two changes to a kept case: amending a closed case, and deleting a case.
+"""The owner's two changes to a kept case: amending a closed case, and deleting a case (removing
+a customer's details is :mod:`fixbench.ui.review.forget_customer`, on the same frame).
 
 Both dialogs check what they can before asking the store (who and why given, the ticket typed
 back), then hand the change to :mod:`fixbench.workflows.review` off the GUI thread, since the
@@ -20,10 +21,11 @@ from PySide6.QtWidgets import (QComboBox, QDialog, QDialogButtonBox, QFormLayout
                                QWidget)
 
 from fixbench.knowledge.model import Family
-from fixbench.store.errors import OwnerRequired, StoreError
+from fixbench.store.errors import OwnerRequired, StoreError, StoreInputError
 from fixbench.ui.bench.verify_close import parse_minutes
 from fixbench.ui.workers import run_in_background
 from fixbench.workflows.case_story import CaseStory, shown_value
+from fixbench.workflows.money import read_amount
 from fixbench.workflows.review import OUTCOMES, Store, amend_case, delete_case
 from fixbench.workflows.trade_names import OUTCOME_WORDS, TradeNames
 
@@ -31,7 +33,7 @@ from fixbench.workflows.trade_names import OUTCOME_WORDS, TradeNames
 # which follows the part rather than being chosen on its own.
 FIELD_WORDS = (("outcome", "Outcome"), ("confirmed_fault", "Confirmed fault"),
                ("confirmed_part", "Confirmed part"), ("bench_minutes", "Bench minutes"),
-               ("customer_ref", "Customer reference"), ("notes", "Notes"))
+               ("price_cents", "Price charged"), ("notes", "Notes"))
 CHOSEN_FROM_LIST = ("outcome", "confirmed_fault", "confirmed_part")
 FOLLOWS = {"confirmed_fault": "The confirmed part and its stage are amended with the fault.",
            "confirmed_part": "The confirmed stage is amended with the part."}
@@ -44,12 +46,11 @@ def value_choices(family: Family | None, field: str) -> list[tuple[str, str | No
     if family is None:
         return [("None", None)]
     if field == "confirmed_fault":
-        faults = sorted(family.faults, key=lambda f: (f.part, f.title))
-        return [("None (no fault confirmed)", None)] + [(f"{f.id}: {f.title}", f.id)
-                                                        for f in faults]
+        faults = sorted(family.faults, key=lambda f: f.title)
+        return [("None (no fault confirmed)", None)] + [(f.title, f.id) for f in faults]
     if field == "confirmed_part":
-        parts = sorted(family.parts, key=lambda p: p.id)
-        return [("None (no part confirmed)", None)] + [(f"{p.id}: {p.title}", p.id) for p in parts]
+        parts = sorted(family.parts, key=lambda p: p.title)
+        return [("None (no part confirmed)", None)] + [(p.title, p.id) for p in parts]
     raise ValueError(f"{field} is not chosen from a list")
 
 
@@ -69,8 +70,11 @@ def typed_value(field: str, text: str) -> Any:
     """A typed field as the store keeps it; ValueError says what to type instead."""
     if field == "bench_minutes":
         return parse_minutes(text)
-    if field == "customer_ref":
-        return text.strip() or None
+    if field == "price_cents":
+        try:
+            return read_amount(text)
+        except StoreInputError as err:
+            raise ValueError(str(err)) from None
     return text.strip()
 
 
@@ -210,6 +214,10 @@ class AmendDialog(OwnerActionDialog):
             self.choice.setCurrentIndex(max(self.choice.findData(current), 0))
             self.value.setCurrentWidget(self.choice)
             self.value_label.setBuddy(self.choice)
+        elif field == "price_cents":
+            self.typed.setText("" if current is None else f"{current / 100:.2f}")
+            self.value.setCurrentWidget(self.typed)
+            self.value_label.setBuddy(self.typed)
         else:
             self.typed.setText("" if current is None else str(current))
             self.value.setCurrentWidget(self.typed)

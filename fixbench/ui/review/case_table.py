@@ -12,12 +12,15 @@ from PySide6.QtCore import QAbstractTableModel, QModelIndex, QPersistentModelInd
 from fixbench.workflows.review import CaseRow
 from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
-TICKET, OPENED, TECHNICIAN, FAMILY, DEVICE, FAULT, OUTCOME, MINUTES, CLOSED = range(9)
-HEADERS = ("Ticket", "Opened", "Technician", "Supply family", "Device", "Confirmed fault",
-           "Outcome", "Bench min", "Closed")
-SORT_KEY = {TICKET: "ticket", OPENED: "opened", TECHNICIAN: "technician", FAMILY: "family",
-            DEVICE: "device", FAULT: "fault", OUTCOME: "outcome", MINUTES: "minutes",
-            CLOSED: "closed"}
+TICKET, OPENED, CUSTOMER, DEVICE, TECHNICIAN, FAULT, OUTCOME, CAME_BACK, MINUTES, CLOSED = range(10)
+HEADERS = ("Ticket", "Opened", "Customer", "Device", "Technician", "Confirmed fault", "Outcome",
+           "Came back", "Bench min", "Closed")
+# How wide each column is, in average characters of the table's font: together they fit the
+# History screen at the window's own size (1366 x 768) beside the filters.
+WIDTH_CHARS = (11, 11, 16, 15, 14, 27, 17, 13, 8, 11)
+SORT_KEY = {TICKET: "ticket", OPENED: "opened", CUSTOMER: "customer", TECHNICIAN: "technician",
+            DEVICE: "device", FAULT: "fault", OUTCOME: "outcome", CAME_BACK: "came_back",
+            MINUTES: "minutes", CLOSED: "closed"}
 ROW_ROLE = Qt.ItemDataRole.UserRole + 1  # the CaseRow behind a table row
 
 _Index = QModelIndex | QPersistentModelIndex
@@ -72,20 +75,34 @@ class CaseTableModel(QAbstractTableModel):
         if role == Qt.ItemDataRole.DisplayRole:
             return self._text(row, index.column())
         if role == Qt.ItemDataRole.ToolTipRole and index.column() == FAULT and row.fault:
-            return self.names.fault(row.fault, row.family)
+            return f"{self.names.fault_label(row.fault, row.family)} ({family_name(row.family)})"
+        if role == Qt.ItemDataRole.ToolTipRole and index.column() == CAME_BACK:
+            return self._came_back_tip(row)
         if role == Qt.ItemDataRole.TextAlignmentRole and index.column() == MINUTES:
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        return None
+
+    @staticmethod
+    def _came_back_tip(row: CaseRow) -> str | None:
+        if row.came_back and row.return_ticket:
+            return f"Came back under warranty as job {row.return_ticket}"
+        if row.return_of:
+            return f"A warranty return of job {row.return_of}"
         return None
 
     def _text(self, row: CaseRow, column: int) -> str:
         if column == TICKET:
             return row.ticket
         if column == OPENED:
-            return f"{row.opened:%Y-%m-%d %H:%M}"
+            return f"{row.opened:%Y-%m-%d}"
+        if column == CUSTOMER:
+            return row.customer or ""
         if column == TECHNICIAN:
             return row.technician
-        if column == FAMILY:
-            return family_name(row.family)
+        if column == CAME_BACK:
+            if row.came_back:
+                return f"yes: {row.return_ticket}" if row.return_ticket else "yes"
+            return f"return of {row.return_of}" if row.return_of else ""
         if column == DEVICE:
             return f"{row.make} {row.model}"
         if column == FAULT:

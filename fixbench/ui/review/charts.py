@@ -1,13 +1,19 @@
 """The Figures screen's charts, drawn with pyqtgraph: labelled bars that can be clicked, lines by
-month, and the spread of bench minutes. Each chart only draws what it is given."""
+month, and the spread of bench minutes. Each chart only draws what it is given.
+
+Every value axis starts at zero and ends a little above the largest value (a rate of 5 % is drawn
+on a scale that shows it, not flat on 0-100 %); the legend sits in the headroom kept above the
+lines, top right, so it never covers a point."""
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import pyqtgraph as pg
 from PySide6.QtCore import QPointF, Signal
 from PySide6.QtGui import QColor, QFont
+
+from fixbench.ui.review.scales import HEADROOM, nice_top
 
 BAR_COLOUR = QColor("#3f6f8f")
 LINE_COLOURS = ("#3f6f8f", "#b5562b", "#4d8a4d", "#7b4f9a", "#8a7a2e")
@@ -40,8 +46,10 @@ class BarChart(_Chart):
 
     bar_clicked = Signal(int)
 
-    def __init__(self, title: str, parent=None) -> None:
+    def __init__(self, title: str, parent=None,
+                 value_text: Callable[[float], str] = lambda v: f"{v:g}") -> None:
         super().__init__(title, parent)
+        self.value_text = value_text
         self.values: list[float] = []
         self.scene().sigMouseClicked.connect(self._clicked)
         self.setToolTip("Click a bar to list those cases on the History tab")
@@ -56,12 +64,13 @@ class BarChart(_Chart):
             self.addItem(pg.BarGraphItem(x0=0, y=ys, height=0.7, width=self.values,
                                          brush=BAR_COLOUR, pen=pg.mkPen(None)))
             for y, value in zip(ys, self.values):
-                text = pg.TextItem(f"{value:g}", color="#222222", anchor=(0, 0.5))
-                text.setPos(value, y)
+                text = pg.TextItem(self.value_text(value), color="#222222", anchor=(0, 0.5))
+                text.setPos(max(value, 0), y)
                 self.addItem(text)
         self.getAxis("left").setTicks([[(y, _short(label)) for y, label in zip(ys, labels)]])
         self.setYRange(-0.6, max(n, 1) - 0.4, padding=0)
-        self.setXRange(0, max(self.values, default=1) * 1.15, padding=0)
+        low = min(0.0, min(self.values, default=0.0))
+        self.setXRange(low * 1.3, max(max(self.values, default=1), 1e-9) * 1.3, padding=0)
 
     def bar_centre(self, index: int) -> QPointF:
         """Where bar ``index`` is on screen (widget coordinates), for keyboardless clicks in tests."""
@@ -81,29 +90,36 @@ class BarChart(_Chart):
 
 
 class MonthLines(_Chart):
-    """One or more lines over months, with a legend; values may be None (no cases that month)."""
+    """One or more lines over months, with a legend; values may be None (no cases that month).
+    ``scale`` turns a value into what the axis shows (100 for a rate shown in %), ``unit`` names
+    the axis."""
 
-    def __init__(self, title: str, percent: bool = False, parent=None) -> None:
+    def __init__(self, title: str, scale: float = 1.0, unit: str = "", parent=None,
+                 allow_negative: bool = False) -> None:
         super().__init__(title, parent)
-        self.percent = percent
-        self.addLegend(offset=(10, 5))
+        self.scale, self.allow_negative = scale, allow_negative
+        self.legend = self.addLegend(offset=(-10, 5))
+        self.points: list[tuple[float, float]] = []
+        if unit:
+            self.getAxis("left").setLabel(unit)
 
     def show_lines(self, months: Sequence[str], series: dict[str, Sequence[float | None]]) -> None:
         self.clear()
+        self.points = []
         xs = list(range(len(months)))
         for colour, (name, values) in zip(LINE_COLOURS, series.items()):
-            points = [(x, v * 100 if self.percent else v) for x, v in zip(xs, values)
-                      if v is not None]
+            points = [(x, v * self.scale) for x, v in zip(xs, values) if v is not None]
             if points:
+                self.points.extend(points)
                 self.plot([p[0] for p in points], [p[1] for p in points], name=name,
                           pen=pg.mkPen(colour, width=2), symbol="o", symbolSize=5,
                           symbolBrush=colour, symbolPen=None)
         step = max(1, -(-len(months) // 7))  # at most seven month labels: they must not overlap
         self.getAxis("bottom").setTicks([[(x, _month_label(months[x])) for x in xs[::step]]])
         self.setXRange(-0.5, max(len(months), 1) - 0.5, padding=0.02)
-        if self.percent:
-            self.setYRange(0, 100)
-            self.getAxis("left").setLabel("%")
+        ys = [y for _x, y in self.points]
+        low = min(0.0, min(ys, default=0.0)) if self.allow_negative else 0.0
+        self.setYRange(low * HEADROOM, nice_top(max(ys, default=0.0)), padding=0)
 
 
 class MinutesSpread(_Chart):
@@ -119,6 +135,25 @@ class MinutesSpread(_Chart):
         if starts:
             self.addItem(pg.BarGraphItem(x0=list(starts), height=list(counts), width=width * 0.92,
                                          brush=BAR_COLOUR, pen=pg.mkPen(None)))
+        self.setYRange(0, max(counts, default=1) * 1.1, padding=0)
+
+
+class AgeBars(_Chart):
+    """Upright bars with a label under each (open jobs by age band)."""
+
+    def __init__(self, title: str, parent=None) -> None:
+        super().__init__(title, parent)
+        self.getAxis("left").setLabel("jobs")
+
+    def show_bars(self, labels: Sequence[str], counts: Sequence[int]) -> None:
+        self.clear()
+        xs = list(range(len(labels)))
+        if labels:
+            self.addItem(pg.BarGraphItem(x=xs, height=list(counts), width=0.7, brush=BAR_COLOUR,
+                                         pen=pg.mkPen(None)))
+        self.getAxis("bottom").setTicks([list(zip(xs, labels))])
+        self.setXRange(-0.6, max(len(labels), 1) - 0.4, padding=0)
+        self.setYRange(0, max(max(counts, default=0), 1) * 1.2, padding=0)
 
 
 MONTH_NAMES = ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec")

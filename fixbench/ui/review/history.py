@@ -2,7 +2,8 @@
 
 Widgets render and forward: the filter panel gives a CaseFilter, the controller runs the count and
 the pages off the GUI thread, the table shows them. Enter (or a double click) opens a case's story;
-when the owner amends or deletes a case there, the list and its count are read again.
+when the owner amends or deletes a case there, or removes a customer's details, the list and its
+count are read again. Every column fits the window at its own size (1366 x 768).
 """
 
 from __future__ import annotations
@@ -16,8 +17,7 @@ from fixbench.workflows.review import CaseFilter, FilterChoices, filter_choices
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.busy import BusyStrip
 from fixbench.ui.review.case_story import CaseStoryWindow
-from fixbench.ui.review.case_table import (DEVICE, FAMILY, FAULT, MINUTES, OPENED, OUTCOME,
-                                           ROW_ROLE, TECHNICIAN, TICKET, CaseTableModel)
+from fixbench.ui.review.case_table import OPENED, ROW_ROLE, WIDTH_CHARS, CaseTableModel
 from fixbench.ui.review.filters_panel import FiltersPanel
 from fixbench.ui.review.history_controller import HistoryController
 from fixbench.workflows.trade_names import TradeNames
@@ -43,9 +43,9 @@ class HistoryScreen(QWidget):
         header = self.table.horizontalHeader()
         header.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
         header.setStretchLastSection(True)
-        for column, width in ((TICKET, 100), (OPENED, 120), (TECHNICIAN, 115), (FAMILY, 140),
-                              (DEVICE, 120), (FAULT, 240), (OUTCOME, 130), (MINUTES, 70)):
-            header.resizeSection(column, width)
+        char = self.table.fontMetrics().averageCharWidth()
+        for column, chars in enumerate(WIDTH_CHARS):
+            header.resizeSection(column, chars * char)
         self.table.verticalHeader().setDefaultSectionSize(24)
         self.table.setSortingEnabled(True)
         self.table.sortByColumn(OPENED, Qt.SortOrder.DescendingOrder)
@@ -56,12 +56,13 @@ class HistoryScreen(QWidget):
         self.open_button = QPushButton("&Open case")
         self.report_button = QPushButton("Job &report (PDF)...")
         self.export_button = QPushButton("E&xport CSV...")
-        self.export_button.setToolTip("The cases matching the filter, for a spreadsheet (owner only)")
+        self.export_button.setToolTip("The cases matching the filter, for a spreadsheet (owner only; "
+                                      "customers' names only if asked for)")
         self.stories: list[CaseStoryWindow] = []
         side = QGroupBox("Which cases")
         side_layout = QVBoxLayout(side)
         side_layout.addWidget(self.filters)
-        side.setFixedWidth(300)
+        side.setFixedWidth(270)
         top = QHBoxLayout()
         top.addWidget(self.count)
         top.addStretch(1)
@@ -83,7 +84,8 @@ class HistoryScreen(QWidget):
         self.report_button.clicked.connect(self._report_selected)
         self.export_button.clicked.connect(
             lambda: self.actions.export_csv(self.controller.case_filter, self.controller.sort_key,
-                                            self.controller.descending))
+                                            self.controller.descending,
+                                            with_customers=self.actions.ask_with_customers()))
         QShortcut(QKeySequence("Ctrl+F"), self, activated=self.filters.text.setFocus)
         QShortcut(QKeySequence("Ctrl+L"), self, activated=self.table.setFocus)
         store = context.store
@@ -121,14 +123,25 @@ class HistoryScreen(QWidget):
             self.busy.tell("Pick a case in the list first.")
             return None
         case = self.model.index(row, 0).data(ROW_ROLE)
-        story = CaseStoryWindow(self.context, case.id, self)
-        story.report_requested.connect(lambda case_id: self.actions.job_report(case_id, case.ticket))
+        return self.open_case_id(case.id, case.ticket)
+
+    def open_case_id(self, case_id: int, ticket: str = "") -> CaseStoryWindow:
+        """The story window of one case (also from a link in another case's story)."""
+        story = CaseStoryWindow(self.context, case_id, self)
+        story.report_requested.connect(lambda cid: self.actions.job_report(cid, ticket))
         story.finished.connect(lambda _result: self.stories.remove(story))
         story.case_amended.connect(lambda _case_id: self.controller.reload())
-        story.case_deleted.connect(lambda _case_id: self._case_deleted(case.ticket))
+        story.case_deleted.connect(lambda _case_id: self._case_deleted(ticket))
+        story.customer_jobs_wanted.connect(self.show_customer_jobs)
+        story.case_wanted.connect(self.open_case_id)
         self.stories.append(story)
         story.show()
         return story
+
+    def show_customer_jobs(self, customer_id: int, name: str) -> None:
+        """List every job of one customer (one click from any of their cases)."""
+        self.filters.name_customer(customer_id, name)
+        self.apply_filter({"customer_id": customer_id})
 
     def _case_deleted(self, ticket: str) -> None:
         self.busy.tell(f"Case {ticket} deleted.")

@@ -9,7 +9,7 @@ from __future__ import annotations
 from datetime import date
 
 from PySide6.QtCore import QObject, Signal
-from PySide6.QtWidgets import QFileDialog, QWidget
+from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
 
 from fixbench.store.errors import StoreError
 from fixbench.ui.context import AppContext
@@ -64,7 +64,9 @@ class ReportActions(QObject):
         self._run(work, "Writing the monthly summary...")
 
     def export_csv(self, case_filter: CaseFilter, sort: str = "opened", descending: bool = False,
-                   path: str | None = None, passphrase: str | None = None) -> None:
+                   path: str | None = None, passphrase: str | None = None,
+                   with_customers: bool = False) -> None:
+        """Customers' names and contacts go into the file only when the owner says so."""
         passphrase = passphrase if passphrase is not None else ask_owner_passphrase(
             self.window, "Exporting cases")
         if passphrase is None:
@@ -76,10 +78,21 @@ class ReportActions(QObject):
 
         def work():
             count = export_cases_csv(store, case_filter, path, passphrase=passphrase, sort=sort,
-                                     descending=descending)
-            return f"{count} cases exported to {path}"
+                                     descending=descending, with_customers=with_customers)
+            kept = "with" if with_customers else "without"
+            return f"{count} cases exported to {path} ({kept} customers' details)"
 
         self._run(work, "Exporting...")
+
+    def ask_with_customers(self) -> bool:
+        """Whether the owner wants customers' names and contacts in an export (No by default)."""
+        answer = QMessageBox.question(
+            self.window, "Customers' details",
+            "Put customers' names and contacts in the file?\n\nThey are personal data: leave "
+            "them out unless the file needs them and stays with you.",
+            QMessageBox.StandardButton.Yes | QMessageBox.StandardButton.No,
+            QMessageBox.StandardButton.No)
+        return answer == QMessageBox.StandardButton.Yes
 
     def _run(self, work, doing: str) -> None:
         self.running += 1

@@ -13,6 +13,8 @@ from PySide6.QtCore import QPointF, QRectF, QSizeF, Qt
 from PySide6.QtGui import (QColor, QFont, QPainter, QPen, QPyTextObject, QTextCharFormat,
                            QTextCursor, QTextFormat)
 
+from fixbench.ui.review.scales import nice_top
+
 CHART_OBJECT = QTextFormat.ObjectTypes.UserObject + 1
 CHART_KEY = QTextFormat.Property.UserProperty + 1
 BAR = QColor("#3f6f8f")
@@ -100,7 +102,8 @@ class ChartObjects(QPyTextObject):
     def _lines(self, painter: QPainter, area: QRectF, chart: LinesSpec) -> None:
         plot = area.adjusted(28 * self.scale, 0, -4 * self.scale, -14 * self.scale)
         values = [v for _, series in chart.series for v in series if v is not None]
-        top = 1.0 if chart.percent else max(values, default=1) or 1
+        # From zero to a round value above the largest, so a small rate is not drawn flat.
+        top = nice_top(max(values, default=0.0))
         painter.setPen(QPen(QColor("#bbbbbb"), 0.5 * self.scale))
         for k in range(5):
             y = plot.bottom() - plot.height() * k / 4
@@ -109,7 +112,7 @@ class ChartObjects(QPyTextObject):
             painter.setPen(INK)
             painter.drawText(QRectF(area.left(), y - 6 * self.scale, 25 * self.scale, 12 * self.scale),
                              Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter,
-                             f"{tick:.0%}" if chart.percent else f"{tick:.0f}")
+                             f"{tick * 100:g} %" if chart.percent else f"{tick:g}")
             painter.setPen(QPen(QColor("#bbbbbb"), 0.5 * self.scale))
         n = len(chart.months)
 
@@ -131,6 +134,9 @@ class ChartObjects(QPyTextObject):
                 painter.drawLine(a, b)
             for p in points:
                 painter.drawEllipse(p, 1.5 * self.scale, 1.5 * self.scale)
-            painter.drawText(QRectF(plot.right() - 120 * self.scale, plot.top() + k * 11 * self.scale,
-                                    118 * self.scale, 11 * self.scale),
-                             Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter, name)
+            # The names go above the plot, outside it: they never cover a point.
+            painter.drawText(QRectF(plot.right() - 120 * (k + 1) * self.scale,
+                                    area.top() - 16 * self.scale, 118 * self.scale,
+                                    11 * self.scale),
+                             Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter,
+                             f"\u2014 {name}")

@@ -66,7 +66,7 @@ def repair_and_verify(qtbot, bench, family_id: str, value: str, cost: str, tmp_p
         type_into(qtbot, verify.field.edit, healthy[step.check])
         settle(qtbot, bench)
         assert verify.result.text().startswith("\u2714"), verify.result.text()
-    assert verify.title.text() == "Every verification reading is in band"
+    assert verify.title.text() == "Every verification reading is as a good unit reads"
     qtbot.keyClick(verify, Qt.Key.Key_L, ALT)  # Close the case
     assert bench.page == "close"
     shoot(bench.window(), tmp_path, f"{name}-close")

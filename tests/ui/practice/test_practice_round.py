@@ -15,6 +15,7 @@ import pytest
 from PySide6.QtCore import Qt
 
 from fixbench.quantities import parse_quantity
+from fixbench.store.customers import find_or_add_customer
 from fixbench.store import open_store
 from fixbench.store.cases import add_reading, close_case, open_case
 from fixbench.store.people import add_device, add_technician
@@ -28,7 +29,8 @@ NOW = datetime(2025, 6, 2, 9, 30)
 
 def close_a_case(store, device, tech, ticket, fault, when, told=()):
     case = open_case(store, ticket_ref=ticket, device_id=device, technician_id=tech, family_id="pwm_flyback",
-                     ratings={"mains": "230 V", "output": "12 V", "current": "2 A"}, customer_ref="Mr Sample")
+                     ratings={"mains": "230 V", "output": "12 V", "current": "2 A"},
+                     customer_id=find_or_add_customer(store, "Mr Sample"))
     for check_id, typed in told:
         add_reading(store, case, check_id=check_id, typed=typed, value=None, unit=None, outcome=typed, suspects=())
     close_case(store, case, outcome="repaired", bench_minutes=40, confirmed_fault=fault, closed_at=when)

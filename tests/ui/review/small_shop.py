@@ -11,6 +11,7 @@ from __future__ import annotations
 import random
 from datetime import datetime, timedelta
 
+from fixbench.store.customers import find_or_add_customer
 from fixbench.engine import simulate_readings, start_diagnosis
 from fixbench.physics.ratings import parse_ratings
 from fixbench.store.amendments import amend_closed_case
@@ -66,7 +67,7 @@ def build_small_shop(store, kb, seed: int = 7) -> int:
             fault_id = rng.choices([f.id for f in faults], [f.weight for f in faults])[0]
         case_id = open_case(store, ticket_ref=f"T-{number:04d}", device_id=device_id,
                             technician_id=rng.choice(people), family_id=family_id, ratings=ratings,
-                            customer_ref=f"customer {rng.randrange(1000, 9999)}",
+                            customer_id=find_or_add_customer(store, f"Customer {rng.randrange(1000, 9999)}"),
                             notes=rng.choice(["", "dropped on the floor", "smells burnt",
                                               "works when warm"]), opened_at=opened)
         at = opened

@@ -187,8 +187,10 @@ def test_amending_the_confirmed_fault_brings_its_part_and_stage(qtbot, demo_cont
         "confirmed_fault", "confirmed_part", "confirmed_stage"}
     shown = window.timeline.toPlainText()
     assert f"Confirmed fault, confirmed part and confirmed stage amended by {WHO}" in shown
-    assert f"; now {other.id}: {other.title}" in shown
-    assert f"Confirmed fault: {row.confirmed_fault}" in shown  # the closing step, as closed
+    assert f"; now {other.title}" in shown
+    assert other.id not in shown  # the fault by its name, not the engine's identifier
+    was = family.fault(row.confirmed_fault).title
+    assert f"Confirmed fault: {was}" in shown  # the closing step, as closed
     window.timeline.verticalScrollBar().setValue(window.timeline.verticalScrollBar().maximum())
     QApplication.processEvents()
     assert window.grab().save(str(tmp_path / "case-fault-amended.png"))

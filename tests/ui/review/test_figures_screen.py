@@ -8,12 +8,12 @@ from collections import Counter
 from datetime import date, datetime, timedelta
 
 import pytest
-from PySide6.QtCore import QDate, Qt
+from PySide6.QtCore import QDate, QPointF, Qt
 
 from fixbench.store import open_store
 from fixbench.store.cases import (RankedSuspect, add_reading, add_verification, close_case,
                                   open_case)
-from fixbench.store.people import add_device, add_technician
+from fixbench.store.people import add_device, add_practice_attempt, add_technician
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.figures_screen import FiguresScreen
 from fixbench.ui.review.history import HistoryScreen
@@ -88,7 +88,7 @@ def figures(qtbot, hand_shop, knowledge):
     return screen
 
 
-def test_figures_equal_the_hand_count(figures):
+def test_figures_equal_the_hand_count(figures, knowledge):
     repaired = [p for p in PLAN if p[5] == "repaired"]
     # A1 came back: its device was opened again (A6) within 90 days of closing.
     came_back = {"A1"}
@@ -109,15 +109,18 @@ def test_figures_equal_the_hand_count(figures):
     assert f"<b>{len(PLAN)}</b> closed cases" in text
     assert f"First-time fix <b>{len(first_time) / len(repaired):.0%}</b>" in text
     assert f"median <b>{_median(minutes):g} min</b>" in text
-    faults = Counter(p[7] for p in confirmed)
-    shown = dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.faults.values))
+    faults = Counter(knowledge.family("pwm_flyback").fault(p[7]).title for p in confirmed)
+    shown = dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.charts.faults.values))
     assert shown == dict(faults)
     per_month = Counter(p[3] for p in PLAN)
-    closed_line = next(item for item in figures.volume.listDataItems() if item.name() == "closed")
+    closed_line = next(item for item in figures.charts.volume.listDataItems()
+                       if item.name() == "closed")
     assert list(closed_line.getData()[1]) == [per_month[3], per_month[4]]
-    people = Counter(PEOPLE[p[1]] for p in PLAN)
-    assert dict(zip([r[0] for r in figures.snapshot.technicians.rows], figures.people.values)) \
-        == dict(people)
+    # The technician chart shows each one's median bench minutes (the table beside it already
+    # counts their cases).
+    minutes = {name: _median([p[6] for p in PLAN if PEOPLE[p[1]] == name]) for name in PEOPLE}
+    assert dict(zip([r[0] for r in figures.charts.people.rows], figures.charts.people.values)) \
+        == minutes
 
 
 def test_clicking_a_fault_bar_lists_those_cases(qtbot, figures, hand_shop, knowledge):
@@ -126,16 +129,16 @@ def test_clicking_a_fault_bar_lists_those_cases(qtbot, figures, hand_shop, knowl
     figures.filter_requested.connect(history.apply_filter)
     figures.pages.setCurrentIndex(1)
     qtbot.wait(50)
-    top_fault = figures.snapshot.faults.rows[0][0]
+    top_fault = figures.snapshot.faults.rows[0][-1]
     with qtbot.waitSignal(figures.filter_requested, timeout=3000) as signal:
-        qtbot.mouseClick(figures.faults.viewport(), Qt.MouseButton.LeftButton,
-                         pos=figures.faults.bar_centre(0))
+        qtbot.mouseClick(figures.charts.faults.viewport(), Qt.MouseButton.LeftButton,
+                         pos=figures.charts.faults.bar_centre(0))
     assert signal.args[0]["fault"] == top_fault
     assert signal.args[0]["since"] == date(2024, 1, 1)
     settle(qtbot, lambda: history.controller.case_filter.fault == top_fault
            and not history.controller.loading)
-    assert history.model.total == sum(1 for p in PLAN if p[7] == top_fault)
-    assert history.filters.fault.currentData() == top_fault
+    assert history.model.total == sum(1 for p in PLAN if ("pwm_flyback", p[7]) in top_fault)
+    assert history.filters.fault.currentText() == figures.snapshot.faults.rows[0][0]
 
 
 def test_clicking_beside_the_bars_does_nothing(qtbot, figures):
@@ -143,8 +146,8 @@ def test_clicking_beside_the_bars_does_nothing(qtbot, figures):
     qtbot.wait(50)
     emitted = []
     figures.filter_requested.connect(emitted.append)
-    corner = figures.faults.viewport().rect().topRight()
-    qtbot.mouseClick(figures.faults.viewport(), Qt.MouseButton.LeftButton, pos=corner)
+    corner = figures.charts.faults.viewport().rect().topRight()
+    qtbot.mouseClick(figures.charts.faults.viewport(), Qt.MouseButton.LeftButton, pos=corner)
     assert emitted == []
 
 
@@ -154,6 +157,52 @@ def test_device_model_scope_counts_only_that_model(qtbot, figures):
     settle(qtbot, lambda: figures.snapshot.scope.model == "QD-0")
     on_model = [p for p in PLAN if p[2] % 2 == 0]
     assert figures.snapshot.headline()["closed"] == len(on_model)
-    faults = Counter(p[7] for p in on_model if p[7])
-    assert dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.faults.values)) \
+    family = figures.context.knowledge.family("pwm_flyback")
+    faults = Counter(family.fault(p[7]).title for p in on_model if p[7])
+    assert dict(zip([r[0] for r in figures.snapshot.faults.rows], figures.charts.faults.values)) \
         == dict(faults)
+
+
+def _view_range(chart):
+    return chart.getPlotItem().vb.viewRange()
+
+
+def test_value_axes_start_at_zero_and_fit_a_small_rate(figures):
+    """The comeback rate (one in six repairs here, a few % in a shop) is drawn on an axis that fits
+    it, not flat on 0-100 %; case volume counts from zero (issue: neither did)."""
+    charts = figures.charts
+    (_x, (low, high)) = _view_range(charts.came_back)
+    rates = [row[4] * 100 for row in figures.snapshot.rates_by_month.rows if row[4] is not None]
+    assert low == 0 and max(rates) < high <= 2 * max(rates)
+    (_x, (low, high)) = _view_range(charts.volume)
+    assert low == 0 and high >= max(row[1] for row in figures.snapshot.rates_by_month.rows)
+
+
+def test_the_legend_covers_no_point(qtbot, figures):
+    charts = figures.charts
+    for chart in (charts.volume, charts.first_time, charts.came_back, charts.money_months):
+        chart.resize(600, 300)
+        qtbot.wait(20)
+        legend = chart.legend.sceneBoundingRect()
+        view = chart.getPlotItem().vb
+        assert chart.points
+        for x, y in chart.points:
+            assert not legend.contains(view.mapViewToScene(QPointF(x, y))), chart
+
+
+def test_practice_scores_are_drawn_out_of_100(qtbot, hand_shop, knowledge):
+    """Practice scores are out of 100; drawn as fractions times 100 they read about 7000 %
+    (issue: the People chart showed nothing)."""
+    trainee = add_technician(hand_shop, "Kestrel Vane", role="trainee")
+    for week, score in enumerate((62.0, 71.5, 87.2)):
+        add_practice_attempt(hand_shop, trainee_id=trainee, scenario="drawn:normal:pwm_flyback:"
+                             "Q1.short:s1", checks_used=7, minutes=20.0, score=score,
+                             safety_slips=0, attempted_at=datetime(2024, 2 + week, 10, 16))
+    screen = FiguresScreen(AppContext(hand_shop, knowledge))
+    qtbot.addWidget(screen)
+    screen.show()
+    settle(qtbot, lambda: screen.snapshot is not None)
+    line = screen.charts.practice.listDataItems()[0]
+    assert list(line.getData()[1]) == [62.0, 71.5, 87.2]
+    (_x, (low, high)) = _view_range(screen.charts.practice)
+    assert low == 0 and 87.2 < high <= 200
