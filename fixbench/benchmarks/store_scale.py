@@ -17,8 +17,8 @@ import time
 from pathlib import Path
 
 from fixbench.benchmarks.filled_shop import (READINGS_PER_CASE, SUSPECTS_PER_READING,
-                                             add_bench_people_and_units, bulk_fill, fake_case,
-                                             verification_row)
+                                             add_bench_people_and_units, bulk_fill, customers_for,
+                                             fake_case, verification_row)
 from fixbench.store.case_list import SORTABLE, case_page
 from fixbench.store.cases import (RankedSuspect, add_reading, add_verification, close_case,
                                   open_case)
@@ -68,7 +68,7 @@ def run_store_benchmark(cases: int = 100_000, seed: int = 1) -> dict:
         api_readings = _api_sample(store, rng, 1, sample, n_devices)
         api_seconds = time.perf_counter() - began
         began = time.perf_counter()
-        bulk_fill(store, rng, sample + 1, cases, n_devices)
+        bulk_fill(store, rng, sample + 1, cases, n_devices, customers_for(cases))
         bulk_seconds = time.perf_counter() - began
         with store.engine.begin() as connection:
             connection.exec_driver_sql("ANALYZE")

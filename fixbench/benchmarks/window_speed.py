@@ -10,8 +10,10 @@
   of the largest family (most checks) is diagnosed through the step card, and each reading is
   timed from the Enter key to the moment the suspects and the next step are on screen and the
   reading is committed to the database. Target: median at most 100 ms.
-- The owner's screens on a temporary shop of N cases (the store benchmark's bulk filler): the
-  History tab's first page, a filter, the Figures tab drawn. Target at 100,000 cases: 1 s each.
+- The owner's screens on a temporary shop of N cases (the store benchmark's bulk filler, with
+  customers, prices and warranty returns): the History tab's first page, a filter, the Figures
+  tab drawn (every page), the Figures tab opened on its Money page. Target at 100,000 cases: 1 s
+  each.
 
 The window is driven by :mod:`fixbench.ui.timed_screens`; this module builds the shops, runs the
 start-up processes and prints.
@@ -147,7 +149,7 @@ def _startup_database(folder: Path) -> Path:
     return path
 
 
-REVIEW_KEYS = ("history_open_ms", "filter_ms", "figures_ms")
+REVIEW_KEYS = ("history_open_ms", "filter_ms", "figures_ms", "money_figures_ms")
 
 
 def run_ui_benchmark(cases: int, startup_runs: int = STARTUP_RUNS) -> dict:
@@ -183,6 +185,7 @@ def print_ui_report(result: dict) -> None:
           f"{ok(result['reading_update_ms_median'] <= READING_TARGET_MS)})")
     print(f"Owner's screens with {result['review']['review_cases']:,} cases:")
     for key, title in zip(REVIEW_KEYS, ("history tab with its first page", "a filter applied",
-                                        "figures tab drawn")):
+                                        "figures tab drawn, every page",
+                                        "figures opened on the money page")):
         print(f"  {title:34s} {result[key]:8.1f} ms   (target <= {REVIEW_TARGET_MS:g} ms: "
               f"{ok(result[key] <= REVIEW_TARGET_MS)})")

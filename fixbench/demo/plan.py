@@ -1,20 +1,24 @@
-"""The demo shop's history without its readings: people, devices, dates, outcomes, comebacks.
+"""The demo shop's history without its readings: people, customers, devices, dates, outcomes,
+prices, comebacks, and when the trainees practise.
 
 Everything here is fictional and deterministic for a seed: a made-up shop on 230 V 50 Hz mains
-with four technicians and two trainees, invented device makes and models (each model built on one
-supply family, with the ratings on its label), about two years of cases arriving on working days,
-faults drawn within the unit's family in proportion to the knowledge base's prior weights, each
-technician's pace as a log-normal spread around their own speed (repair times are commonly
-modelled as log-normal; Kline, "The Lognormal Distribution as a Repair-Time Model", 1984), some
-units that come back within 90 days and some that are not worth repairing. The readings, repairs,
-verifications and bench minutes of each case come from the engine, in
-:mod:`fixbench.demo.bench_play`.
+with four technicians and two trainees, invented customers (names made up, contacts at the
+example.org domain that RFC 2606 keeps for examples), invented device makes and models (each
+model built on one supply family, with the ratings on its label), about two years of cases
+arriving on working days, faults drawn within the unit's family in proportion to the knowledge
+base's prior weights, each technician's pace as a log-normal spread around their own speed
+(repair times are commonly modelled as log-normal; Kline, "The Lognormal Distribution as a
+Repair-Time Model", 1984), units waiting in the queue and at the counter for a few days, a price
+quoted per kind of unit, some units that come back within 90 days (done again for nothing) and
+some that are not worth repairing. The readings, repairs, verifications and bench minutes of each
+case come from the engine, in :mod:`fixbench.demo.bench_play`; the practice rounds are played by
+the practice package itself, in :mod:`fixbench.demo.practice_play`.
 """
 
 from __future__ import annotations
 
 import random
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from datetime import datetime, timedelta
 
 SHOP_END = datetime(2025, 6, 30, 18, 0)
@@ -24,6 +28,22 @@ SHOP_MAINS = "230 V"  # the bench supply of the fictional shop, 50 Hz
 TECHNICIANS = (("Mara Quellby", 0.85), ("Oskar Venn", 1.15), ("Ilse Farrow", 1.0),
                ("Teodor Malk", 1.35))
 TRAINEES = ("Juno Pellory", "Ravi Ashcombe")
+# The shop's terms of business: labour per hour of bench time, currency, tax wording.
+LABOUR_RATE_CENTS = 4200
+CURRENCY = "EUR"
+TAX_WORDING = "Prices include VAT at 21 %."
+FIRST_NAMES = ("Odile", "Barnaby", "Wren", "Tamsin", "Corwin", "Ines", "Lorcan", "Maelis",
+               "Pietro", "Saskia", "Hollis", "Yara", "Desmond", "Liesel", "Anouk", "Emrys",
+               "Fenella", "Gideon", "Henrike", "Ottilie")
+LAST_NAMES = ("Fenwright", "Quist", "Aldous", "Brackett", "Corlander", "Dunmore", "Eskew",
+              "Farrant", "Gallow", "Hesketh", "Ilbury", "Jessop", "Kettering", "Lumley",
+              "Marwood", "Nettleship", "Ormerod", "Pendry", "Quarrie", "Rudyard")
+# The price quoted per kind of unit, and the bench fee for a unit found not worth repairing or
+# with no fault in it (invented for the demo, like everything here).
+QUOTE_CENTS = {"phone charger": 2400, "usb adapter": 2900, "router adapter": 3900,
+               "monitor adapter": 4500, "laptop adapter": 5500}
+BENCH_FEE_CENTS = 1000
+REPEAT_CUSTOMER_CHANCE = 0.3  # a new unit brought by a customer seen before
 UNIVERSAL = {"mains": "100-240 V", "frequency": "50 Hz"}
 FIXED_230 = {"mains": "230 V", "frequency": "50 Hz"}
 
@@ -73,6 +93,13 @@ class FaultChoice:
 
 
 @dataclass(frozen=True)
+class DemoCustomer:
+    number: int
+    name: str
+    contact: str
+
+
+@dataclass(frozen=True)
 class DemoDevice:
     number: int
     make: str
@@ -80,6 +107,7 @@ class DemoDevice:
     kind: str
     family_id: str
     label_ratings: dict
+    owner: DemoCustomer | None = None
 
     @property
     def bench_ratings(self) -> dict:
@@ -96,21 +124,23 @@ class DemoCase:
     fault: FaultChoice
     outcome: str
     pace: float  # bench minutes per book minute for this case
-    wait_minutes: int  # from intake to the first reading
+    wait_minutes: int  # from intake to the first reading (the queue)
     comeback_of: str | None
+    pickup_hours: float = 2.0  # from the last bench minute to handed back at the counter
+    quote_cents: int = 0  # quoted at the counter
+    complaint: str = ""  # the customer's words
 
 
 @dataclass(frozen=True)
 class DemoPractice:
+    """A practice round to be played: who, when, on what, and how far along their training."""
+
     trainee: str
-    scenario: str
     attempted_at: datetime
-    checks_used: int
-    minutes: float
-    score: float
-    safety_slips: int
-    coach_used: bool = False
-    fuse_blown: bool = False
+    family_id: str
+    level_id: str
+    seed: int
+    progress: float  # 0 at the start of the two years, 1 at the end
 
 
 def catalogue_from_knowledge(kb) -> list[FaultChoice]:
@@ -128,6 +158,8 @@ def catalogue_from_knowledge(kb) -> list[FaultChoice]:
 def plan_shop(seed: int, catalogue: list[FaultChoice], days: int = SHOP_DAYS) -> list[DemoCase]:
     """The last ``days`` days of cases up to ``SHOP_END`` (about two years), oldest first."""
     rng = random.Random(seed)
+    counter = random.Random(seed + 3)  # customers, queue, pickup and quotes: a stream of their own
+    customers: list[DemoCustomer] = []
     devices: list[DemoDevice] = []
     cases: list[DemoCase] = []
     comebacks: dict[datetime, list[DemoCase]] = {}
@@ -140,17 +172,54 @@ def plan_shop(seed: int, catalogue: list[FaultChoice], days: int = SHOP_DAYS) ->
                 opened = day + timedelta(minutes=35 * slot + rng.randrange(30))
                 if earlier is None:
                     device = _new_device(rng, len(devices) + 1)
+                    device = _owned(counter, device, customers)
                     devices.append(device)
                     fault = _family_fault(rng, device.family_id, catalogue)
                 else:
                     device, fault = earlier.device, _comeback_fault(rng, earlier, catalogue)
-                case = _plan_case(rng, len(cases) + 1, opened, device, fault, earlier)
+                case = _at_the_counter(counter, _plan_case(rng, len(cases) + 1, opened, device,
+                                                           fault, earlier))
                 cases.append(case)
                 if case.outcome == "repaired" and rng.random() < COMEBACK_CHANCE:
                     back = (opened + timedelta(days=rng.randrange(8, 85))).date()
                     comebacks.setdefault(back, []).append(case)
         day += timedelta(days=1)
     return cases
+
+
+def _owned(counter: random.Random, device: DemoDevice,
+           customers: list[DemoCustomer]) -> DemoDevice:
+    """The device with its owner: a customer seen before, or a new one."""
+    if customers and counter.random() < REPEAT_CUSTOMER_CHANCE:
+        owner = counter.choice(customers)
+    else:
+        first, last = counter.choice(FIRST_NAMES), counter.choice(LAST_NAMES)
+        owner = DemoCustomer(len(customers) + 1, f"{first} {last}",
+                             f"{first.lower()}.{last.lower()}{len(customers) + 1}@example.org")
+        customers.append(owner)
+    return replace(device, owner=owner)
+
+
+COMPLAINTS = ("dead, no light", "stopped charging", "dead after a storm", "smells burnt",
+              "works when warm", "ticks and will not start", "output keeps dropping out",
+              "charges very slowly", "dead, fuse looks black")
+
+
+def _at_the_counter(counter: random.Random, case: DemoCase) -> DemoCase:
+    """The queue before the bench, the wait for the customer to collect, the quote and the
+    customer's words; a warranty return is quoted nothing."""
+    return replace(case, wait_minutes=counter.randrange(10, 2 * 24 * 60),
+                   pickup_hours=round(counter.uniform(2.0, 72.0), 2),
+                   quote_cents=0 if case.comeback_of else QUOTE_CENTS[case.device.kind],
+                   complaint=counter.choice(COMPLAINTS))
+
+
+def price_cents(case: DemoCase, outcome: str) -> int:
+    """What the customer paid: the quote for a repair, the bench fee for a unit not worth
+    repairing or with no fault, nothing for a unit taken back unrepaired or a warranty return."""
+    if case.comeback_of is not None or outcome == "returned_unrepaired":
+        return 0
+    return case.quote_cents if outcome == "repaired" else BENCH_FEE_CENTS
 
 
 def _poisson(rng: random.Random, mean: float) -> int:
@@ -190,29 +259,20 @@ def _plan_case(rng, number, opened, device, fault, earlier) -> DemoCase:
                     comeback_of=None if earlier is None else earlier.ticket)
 
 
-def plan_practice(seed: int, catalogue: list[FaultChoice]) -> list[DemoPractice]:
-    """Trainees' practice rounds: weekly, improving in score and safety over the two years, asking
-    the coach less as they go; a third of the rounds with a slip blew the fuse."""
+def plan_practice(seed: int) -> list[DemoPractice]:
+    """Trainees' practice rounds: weekly, on a family each, easy for the first quarter of the two
+    years and normal after; how they go is played by :mod:`fixbench.demo.practice_play`."""
     rng = random.Random(seed + 1)
-    marks = random.Random(seed + 2)  # its own draws, so each round's other figures stay as planned
+    families = sorted({model.family_id for model in MODELS})
     rounds = []
     start = SHOP_END - timedelta(days=SHOP_DAYS)
-    for week in range(SHOP_DAYS // 7):
-        progress = week / (SHOP_DAYS // 7)
-        for trainee in TRAINEES:
-            scenario = rng.choices(catalogue, [c.weight for c in catalogue])[0]
-            checks = max(2, round(rng.gauss(9 - 4 * progress, 1.5)))
-            minutes = round(max(4.0, rng.gauss(30 - 14 * progress, 4)), 1)
-            # Out of 100, as practice rounds are scored (fixbench.practice.scoring).
-            score = round(100 * min(1.0, max(0.0, rng.gauss(0.45 + 0.45 * progress, 0.1))), 1)
-            slips = max(0, round(rng.gauss(1.5 - 1.4 * progress, 0.6)))
+    weeks = SHOP_DAYS // 7
+    for week in range(weeks):
+        progress = week / weeks
+        for number, trainee in enumerate(TRAINEES):
             rounds.append(DemoPractice(
-                trainee=trainee,
-                # The scenario id as a practice round writes it (fixbench.practice.scenario.Scenario.id).
-                scenario=f"drawn:{'easy' if progress < 0.25 else 'normal'}:{scenario.family_id}:"
-                         f"{scenario.fault_id}:s{seed * 1000 + week}",
-                attempted_at=start + timedelta(weeks=week, days=4, hours=16),
-                checks_used=checks, minutes=minutes, score=score, safety_slips=slips,
-                coach_used=marks.random() < 0.6 - 0.5 * progress,
-                fuse_blown=slips > 0 and marks.random() < 1 / 3))
+                trainee=trainee, attempted_at=start + timedelta(weeks=week, days=4,
+                                                                hours=16 + number),
+                family_id=rng.choice(families), level_id="easy" if progress < 0.25 else "normal",
+                seed=seed * 100_000 + week * 10 + number, progress=progress))
     return rounds

@@ -1,11 +1,14 @@
 """Builds the demo shop database: the planned history, each case played at the bench by the engine.
 
-The plan (people, devices, dates, faults, outcomes, comebacks, each technician's pace) comes from
-:mod:`fixbench.demo.plan`; each case's readings, suspects after every reading, repairs and
-verification readings come from :func:`fixbench.demo.bench_play.engine_bench_session`, so every
-case in the demo is one the engine really produced. Everything is written through the same store
-functions the bench uses, with times laid out as the bench would have taken them. The same seed
-gives the same rows.
+The plan (people, customers, devices, dates, faults, outcomes, prices, comebacks, each
+technician's pace) comes from :mod:`fixbench.demo.plan`; each case's readings, suspects after
+every reading, repairs and verification readings come from
+:func:`fixbench.demo.bench_play.engine_bench_session`, so every case in the demo is one the engine
+really produced; the trainees' rounds are played and scored by the practice package
+(:mod:`fixbench.demo.practice_play`). Everything is written through the same store functions the
+bench uses (a unit back within the comeback window is linked as a warranty return by the store's
+own intake rule), with times laid out as the bench would have taken them. The same seed gives the
+same rows.
 """
 
 from __future__ import annotations
@@ -15,16 +18,19 @@ from datetime import datetime, timedelta
 
 from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.knowledge.model import Family
+from fixbench.demo.bench_play import BenchSession, engine_bench_session
+from fixbench.demo.plan import (CURRENCY, LABOUR_RATE_CENTS, SHOP_DAYS, TAX_WORDING, TECHNICIANS,
+                                TRAINEES, DemoCase, catalogue_from_knowledge, plan_practice,
+                                plan_shop, price_cents)
+from fixbench.demo.practice_play import practice_attempts
 from fixbench.store.cases import (add_reading, add_repair_action, add_verification, close_case,
                                   open_case)
+from fixbench.store.customers import find_or_add_customer
 from fixbench.store.database import Store
-from fixbench.demo.bench_play import BenchSession, engine_bench_session
-from fixbench.demo.plan import (SHOP_DAYS, TECHNICIANS, TRAINEES, DemoCase,
-                                      catalogue_from_knowledge, plan_practice, plan_shop)
 from fixbench.store.people import add_device, add_practice_attempt, add_technician
+from fixbench.store.shop_terms import ShopTerms, set_shop_terms
 
 HANDLING_MINUTES = 6.0  # unpack, open the case, close it up again [practice]
-PICKUP_DELAY = timedelta(hours=2)  # from the last bench minute to the case closed at the counter
 
 # (family, bench ratings, true fault id, seed, repair=...) -> what happened at the bench
 PlayCase = Callable[..., BenchSession]
@@ -38,12 +44,19 @@ def build_demo_shop(store: Store, seed: int = 1, *, days: int = SHOP_DAYS, kb=No
 
         kb = load_knowledge()
     catalogue = catalogue_from_knowledge(kb)
+    set_shop_terms(store, ShopTerms(labour_rate_cents=LABOUR_RATE_CENTS, currency=CURRENCY,
+                                    tax_wording=TAX_WORDING))
     people = {name: add_technician(store, name) for name, _ in TECHNICIANS}
     people.update({name: add_technician(store, name, role="trainee") for name in TRAINEES})
     devices: dict[int, int] = {}
+    customers: dict[int, int] = {}
     cases = plan_shop(seed, catalogue, days=days)
     for number, planned in enumerate(cases):
         device = planned.device
+        owner = device.owner
+        if owner is not None and owner.number not in customers:
+            customers[owner.number] = find_or_add_customer(store, owner.name, owner.contact,
+                                                           at=planned.opened_at)
         if device.number not in devices:
             devices[device.number] = add_device(store, make=device.make, model=device.model,
                                                 kind=device.kind,
@@ -54,28 +67,25 @@ def build_demo_shop(store: Store, seed: int = 1, *, days: int = SHOP_DAYS, kb=No
         session = play(kb.families[device.family_id], device.bench_ratings, fault,
                        seed * 100_003 + number, repair=planned.outcome == "repaired")
         _write_case(store, kb.families[device.family_id], planned, people[planned.technician],
-                    devices[device.number], session)
+                    devices[device.number], session,
+                    None if owner is None else customers[owner.number])
     start = cases[0].opened_at if cases else None
-    for practice in plan_practice(seed, catalogue):
-        if start is not None and practice.attempted_at < start:
-            continue
-        add_practice_attempt(store, trainee_id=people[practice.trainee],
-                             scenario=practice.scenario, checks_used=practice.checks_used,
-                             minutes=practice.minutes, score=practice.score,
-                             safety_slips=practice.safety_slips,
-                             attempted_at=practice.attempted_at,
-                             coach_used=practice.coach_used, fuse_blown=practice.fuse_blown)
+    planned_rounds = [p for p in plan_practice(seed)
+                      if start is not None and p.attempted_at >= start]
+    for planned, fields in zip(planned_rounds, practice_attempts(kb, planned_rounds)):
+        add_practice_attempt(store, trainee_id=people[planned.trainee], **fields)
     return len(cases)
 
 
 def _write_case(store: Store, family: Family, planned: DemoCase, technician_id: int,
-                device_id: int, session: BenchSession) -> None:
+                device_id: int, session: BenchSession, customer_id: int | None) -> None:
     device = planned.device
     case_id = open_case(store, ticket_ref=planned.ticket, device_id=device_id,
                         technician_id=technician_id, family_id=device.family_id,
                         ratings=device.bench_ratings, opened_at=planned.opened_at,
-                        notes="" if planned.comeback_of is None
-                        else f"Back again after {planned.comeback_of}.")
+                        customer_id=customer_id, quoted_cents=planned.quote_cents,
+                        notes=planned.complaint if planned.comeback_of is None
+                        else f"Back again: {planned.complaint}.")
     clock = _BenchClock(planned.opened_at + timedelta(minutes=planned.wait_minutes), planned.pace)
     steps = session.steps
     if planned.outcome == "returned_unrepaired":  # the customer took it back mid-diagnosis
@@ -103,7 +113,8 @@ def _write_case(store: Store, family: Family, planned: DemoCase, technician_id: 
     close_case(store, case_id, outcome=outcome, bench_minutes=round(clock.bench_minutes),
                confirmed_fault=fault, confirmed_part=part,
                confirmed_stage=None if part is None else family.part(part).stage,
-               closed_at=clock.now + PICKUP_DELAY)
+               closed_at=clock.now + timedelta(hours=planned.pickup_hours),
+               price_cents=price_cents(planned, outcome), labour_rate_cents=LABOUR_RATE_CENTS)
 
 
 class _BenchClock:

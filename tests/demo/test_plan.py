@@ -97,13 +97,11 @@ def test_days_limit_the_history_to_the_last_days_before_the_shop_end(catalogue):
     assert short[0].opened_at >= SHOP_END - timedelta(days=60)
 
 
-def test_trainees_practise_and_improve(catalogue):
-    rounds = plan_practice(1, catalogue)
+def test_trainees_practise_weekly_easy_first_then_normal():
+    rounds = plan_practice(1)
     assert {r.trainee for r in rounds} == set(TRAINEES)
-    first, last = rounds[: len(rounds) // 4], rounds[-len(rounds) // 4:]
-    mean = lambda rs, key: sum(getattr(r, key) for r in rs) / len(rs)  # noqa: E731
-    assert mean(last, "score") > mean(first, "score")
-    assert mean(last, "safety_slips") < mean(first, "safety_slips")
-    assert mean(last, "coach_used") < mean(first, "coach_used")
-    blown = [r for r in rounds if r.fuse_blown]
-    assert blown and all(r.safety_slips > 0 for r in blown)  # blowing the fuse is a slip
+    assert len(rounds) == 2 * (SHOP_DAYS // 7)
+    assert {r.level_id for r in rounds if r.progress < 0.25} == {"easy"}
+    assert {r.level_id for r in rounds if r.progress >= 0.25} == {"normal"}
+    assert len({r.seed for r in rounds}) == len(rounds)
+    assert plan_practice(1) == plan_practice(1) != plan_practice(2)

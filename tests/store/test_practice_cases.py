@@ -5,6 +5,7 @@ from __future__ import annotations
 from datetime import datetime
 
 from fixbench.store.cases import add_reading, close_case, open_case
+from fixbench.store.customers import find_or_add_customer
 from fixbench.store.people import add_device, add_practice_attempt, add_technician
 from fixbench.store.practice_cases import (attempt_record, attempts_of, every_trainees_attempts, replayable_cases,
                                           trainee_summaries)
@@ -17,7 +18,7 @@ def test_closed_cases_are_offered_without_who_or_whose(store):
                         label_ratings={"output": "12 V"})
     ratings = {"mains": "230 V", "output": "12 V", "current": "2 A"}
     case_id = open_case(store, ticket_ref="T-1", device_id=device, technician_id=tech,
-                        family_id="pwm_flyback", ratings=ratings, customer_ref="Mrs Example")
+                        family_id="pwm_flyback", ratings=ratings, customer_id=find_or_add_customer(store, "Mrs Example"))
     close_case(store, case_id, outcome="repaired", bench_minutes=30, confirmed_fault="C3.dried",
                closed_at=datetime(2024, 3, 5))
     open_case(store, ticket_ref="T-2", device_id=device, technician_id=tech, family_id="pwm_flyback",

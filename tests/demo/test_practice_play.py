@@ -1,0 +1,67 @@
+"""The demo trainees' rounds are played and scored by the practice package itself: the figures
+kept are practice's own debrief of each round, so they never contradict the scoring rules (the
+issue: a random "100 with a slip" in the demo's history)."""
+
+from __future__ import annotations
+
+import pytest
+
+from fixbench.demo.plan import plan_practice
+from fixbench.demo.practice_play import habits, play_round, practice_attempts
+from fixbench.practice.progress import AttemptRecord, attempt_fields
+from fixbench.practice.scoring import READY, score_round
+
+EVERY = 12  # rounds sampled across the two years
+
+
+@pytest.fixture(scope="module")
+def knowledge():
+    from fixbench.knowledge import load_knowledge
+
+    return load_knowledge()
+
+
+@pytest.fixture(scope="module")
+def sampled(knowledge):
+    planned = plan_practice(1)[::EVERY]
+    return planned, practice_attempts(knowledge, planned)
+
+
+def test_each_round_is_practices_own_debrief_of_the_round_played(knowledge, sampled):
+    planned, attempts = sampled
+    for plan, kept in zip(planned[:6], attempts):
+        practice, debrief = play_round(knowledge, plan)  # the same plan plays the same round
+        assert kept == {**attempt_fields(practice, debrief), "attempted_at": plan.attempted_at}
+        score = debrief.score
+        # The score is practice's own, from what the round did (the debrief's inputs).
+        again = score_round(true_group=practice.state.model.group_of(practice.scenario.fault_id),
+                            failed_parts=practice.unit.failed_parts,
+                            fault_named=practice.commitment.fault_id,
+                            parts_named=practice.commitment.parts, minutes=practice.clock,
+                            par=debrief.engine.minutes, slips=practice.slips)
+        assert again == score and kept["score"] == score.total
+
+
+def test_no_round_with_a_slip_is_kept_as_bench_ready(sampled):
+    _planned, attempts = sampled
+    records = [AttemptRecord(**{k: v for k, v in a.items() if k != "attempted_at"})
+               for a in attempts]
+    assert any(r.safety_slips for r in records)
+    for record in records:
+        if record.safety_slips or record.fuse_blown:
+            assert record.band != READY
+        if record.fuse_blown:
+            assert record.safety_slips > 0
+
+
+def test_trainees_improve_over_the_two_years(sampled):
+    planned, attempts = sampled
+    half = len(attempts) // 2
+    early, late = attempts[:half], attempts[half:]
+
+    def mean(rows, key):
+        return sum(float(r[key]) for r in rows) / len(rows)
+
+    assert mean(late, "score") > mean(early, "score")
+    assert mean(late, "safety_slips") < mean(early, "safety_slips")
+    assert habits(1.0).follows_plan > habits(0.0).follows_plan
