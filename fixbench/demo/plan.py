@@ -29,7 +29,7 @@ TECHNICIANS = (("Mara Quellby", 0.85), ("Oskar Venn", 1.15), ("Ilse Farrow", 1.0
                ("Teodor Malk", 1.35))
 TRAINEES = ("Juno Pellory", "Ravi Ashcombe")
 # The shop's terms of business: labour per hour of bench time, currency, tax wording.
-LABOUR_RATE_CENTS = 4200
+LABOUR_RATE_CENTS = 2200  # what an hour at the bench costs the shop
 CURRENCY = "EUR"
 TAX_WORDING = "Prices include VAT at 21 %."
 FIRST_NAMES = ("Odile", "Barnaby", "Wren", "Tamsin", "Corwin", "Ines", "Lorcan", "Maelis",
@@ -40,8 +40,8 @@ LAST_NAMES = ("Fenwright", "Quist", "Aldous", "Brackett", "Corlander", "Dunmore"
               "Marwood", "Nettleship", "Ormerod", "Pendry", "Quarrie", "Rudyard")
 # The price quoted per kind of unit, and the bench fee for a unit found not worth repairing or
 # with no fault in it (invented for the demo, like everything here).
-QUOTE_CENTS = {"phone charger": 2400, "usb adapter": 2900, "router adapter": 3900,
-               "monitor adapter": 4500, "laptop adapter": 5500}
+QUOTE_CENTS = {"phone charger": 2900, "usb adapter": 3500, "router adapter": 4500,
+               "monitor adapter": 4900, "laptop adapter": 6500}
 BENCH_FEE_CENTS = 1000
 REPEAT_CUSTOMER_CHANCE = 0.3  # a new unit brought by a customer seen before
 UNIVERSAL = {"mains": "100-240 V", "frequency": "50 Hz"}
@@ -208,8 +208,11 @@ COMPLAINTS = ("dead, no light", "stopped charging", "dead after a storm", "smell
 def _at_the_counter(counter: random.Random, case: DemoCase) -> DemoCase:
     """The queue before the bench, the wait for the customer to collect, the quote and the
     customer's words; a warranty return is quoted nothing."""
-    return replace(case, wait_minutes=counter.randrange(10, 2 * 24 * 60),
-                   pickup_hours=round(counter.uniform(2.0, 72.0), 2),
+    # Whole days in the queue and at the counter, so the bench works in the day as it would.
+    return replace(case, wait_minutes=counter.randrange(10, 240)
+                   + 24 * 60 * counter.choice((0, 0, 1, 1, 2)),
+                   pickup_hours=round(counter.uniform(2.0, 8.0)
+                                      + 24 * counter.choice((0, 1, 1, 2, 3)), 2),
                    quote_cents=0 if case.comeback_of else QUOTE_CENTS[case.device.kind],
                    complaint=counter.choice(COMPLAINTS))
 

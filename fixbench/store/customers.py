@@ -22,7 +22,7 @@ from fixbench.store.owner import require_owner
 
 NAME_MAX = 200
 LOOKUP_LIMIT = 20
-# The field amendments kept a customer's reference under before revision 0006.
+# The field amendments kept a customer's reference under before revision 0007.
 OLD_REFERENCE_FIELD = "customer_ref"
 
 

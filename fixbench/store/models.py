@@ -26,7 +26,7 @@ from sqlalchemy.orm import DeclarativeBase, Mapped, mapped_column, relationship
 STATUSES = ("intake", "diagnosing", "repairing", "verifying", "closed")
 OUTCOMES = ("repaired", "not_economical", "no_fault_found", "returned_unrepaired")
 ROLES = ("technician", "trainee")
-# Every column of ``cases`` the owner's figures read, in one covering index (migration 0006).
+# Every column of ``cases`` the owner's figures read, in one covering index (migration 0007).
 FIGURE_COLUMNS = ("status", "opened_at", "technician_id", "device_id", "family_id",
                   "confirmed_fault", "confirmed_part", "outcome", "came_back",
                   "failed_verification", "top_suspect_fault", "bench_minutes", "price_cents",
@@ -143,7 +143,7 @@ class Case(Base):
         Index("ix_cases_fig_part", "status", "confirmed_part", "outcome", "opened_at"),
         Index("ix_cases_fig_stage", "status", "confirmed_stage", "outcome", "opened_at"),
         Index("ix_cases_fig_device", "status", "device_id", "outcome", "opened_at"),
-        # Every figure's columns, warranty returns and customers (migration 0006 says why).
+        # Every figure's columns, warranty returns and customers (migration 0007 says why).
         Index("ix_cases_fig_all", *FIGURE_COLUMNS),
         Index("ix_cases_customer", "customer_id", "opened_at"),
         Index("ix_cases_comeback_of", "comeback_of_id"),

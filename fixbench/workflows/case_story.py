@@ -118,8 +118,7 @@ def shown_value(names: TradeNames, family_id: str, field_name: str, value) -> st
     if field_name == "confirmed_fault":
         return names.fault_label(value, family_id)
     if field_name == "confirmed_part":
-        title = names.part(value, family_id)
-        return value if title == value else f"{value}: {title}"
+        return names.part_label(value, family_id)
     if field_name == "confirmed_stage":
         family = names.knowledge.families.get(family_id)
         known = family is not None and value in {s.id for s in family.stages}

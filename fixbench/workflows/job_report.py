@@ -5,8 +5,10 @@ not worth repairing). Parts fitted are listed under what was replaced; parts onl
 power-up are listed apart with their result, never as replaced. The charges add up: parts, labour
 (bench minutes at the shop's rate), and, where the agreed price differs, the line that brings them
 to it (a warranty return is covered by the job it came back from); the total is the price charged,
-in the shop's currency, with its tax wording. The supply's engineering family is left out: the
-customer knows their unit by its make, model and kind.
+in the shop's currency, with its tax wording. The labour line is the rest of the agreed price after
+the parts (the shop's own hourly cost stays in the shop's figures); a job kept without a price is
+billed at the shop's labour rate. The supply's engineering family is left out: the customer knows
+their unit by its make, model and kind.
 """
 
 from __future__ import annotations
@@ -52,20 +54,23 @@ class JobReportContent:
 
 
 def _charges(case: CaseRecord, terms: ShopTerms) -> tuple[list[tuple[str, int]], int]:
-    """The bill's lines in cents, and the total: the price charged, or parts and labour."""
+    """The bill's lines in cents, and the total: the price charged (or, with none kept, parts and
+    labour at the shop's rate). A warranty return lists what the work was worth and takes it off."""
     rate = terms.labour_rate_cents if case.labour_rate_cents is None else case.labour_rate_cents
     minutes = case.bench_minutes or 0
-    labour = labour_cents(minutes * rate)
-    lines = [("Parts", case.parts_cents),
-             (f"Labour: {minutes} min at {rate_text(rate, terms.currency)}", labour)]
-    worked = case.parts_cents + labour
-    if case.price_cents is None or case.price_cents == worked:
-        return lines, worked
-    difference = case.price_cents - worked
-    if case.return_of is not None and case.price_cents == 0:
-        lines.append((f"Covered by the warranty of job {case.return_of.ticket}", difference))
-    else:
-        lines.append(("Adjustment to the agreed price", difference))
+    parts = case.parts_cents
+    at_rate = labour_cents(minutes * rate)
+    if case.return_of is not None and not case.price_cents:
+        return [("Parts", parts), (f"Labour: {minutes} min at the bench", at_rate),
+                (f"Covered by the warranty of job {case.return_of.ticket}",
+                 -(parts + at_rate))], 0
+    if case.price_cents is None:
+        return [("Parts", parts), (f"Labour: {minutes} min at {rate_text(rate, terms.currency)}",
+                                   at_rate)], parts + at_rate
+    labour = max(0, case.price_cents - parts)
+    lines = [("Parts", parts), (f"Labour: {minutes} min at the bench", labour)]
+    if parts + labour != case.price_cents:  # parts dearer than the price agreed
+        lines.append(("Taken off to keep to the price agreed", case.price_cents - parts - labour))
     return lines, case.price_cents
 
 

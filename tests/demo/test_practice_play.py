@@ -65,3 +65,31 @@ def test_trainees_improve_over_the_two_years(sampled):
     assert mean(late, "score") > mean(early, "score")
     assert mean(late, "safety_slips") < mean(early, "safety_slips")
     assert habits(1.0).follows_plan > habits(0.0).follows_plan
+
+
+def test_the_shipped_demo_shop_holds_the_rounds_as_practice_plays_them(knowledge):
+    """The built demo shop's practice history is what practice gives for its planned rounds
+    today (so a change to the scoring shows as a demo to rebuild, never as stale numbers)."""
+    import sqlite3
+    from pathlib import Path
+
+    shipped = Path(__file__).resolve().parents[2] / "demo_db" / "fixbench-demo.sqlite"
+    if not shipped.exists():
+        pytest.skip("no built demo shop in this copy")
+    connection = sqlite3.connect(f"file:{shipped}?mode=ro", uri=True)
+    try:
+        kept = {(str(at)[:19], scenario): (score, slips, bool(blown))
+                for at, scenario, score, slips, blown in connection.execute(
+                    "SELECT attempted_at, scenario, score, safety_slips, fuse_blown "
+                    "FROM practice_attempts")}
+    finally:
+        connection.close()
+    planned = plan_practice(1)[::25]
+    compared = 0
+    for played in practice_attempts(knowledge, planned):
+        key = (played["attempted_at"].isoformat(sep=" "), played["scenario"])
+        if key[0] < min(at for at, _ in kept):
+            continue  # before the shop's first case: not kept
+        assert kept[key] == (played["score"], played["safety_slips"], played["fuse_blown"]), key
+        compared += 1
+    assert compared >= 6

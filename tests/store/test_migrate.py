@@ -232,12 +232,12 @@ def test_revision_0005_attempts_keep_their_rows_and_know_nothing_of_what_they_ta
     store.close()
 
 
-def test_revision_0005_customer_references_parts_and_returns_move_to_their_places(store_url):
+def test_revision_0006_customer_references_parts_and_returns_move_to_their_places(store_url):
     """Customer references become customers, repair lines sum into the job's parts, and each
     repaired unit's next job within 90 days becomes its linked warranty return, so every job
     that came back before still has."""
     store = open_store(store_url, migrate=False)
-    upgrade(store, "0005")
+    upgrade(store, "0006")
     at = datetime(2024, 2, 1, 9)
     with store.engine.begin() as connection:
         _fill_v1(connection, cases=4)  # one unit, four repaired jobs at the same moment
@@ -260,7 +260,7 @@ def test_revision_0005_customer_references_parts_and_returns_move_to_their_place
     upgrade(store, "head")
 
     assert _counts(store) == before
-    # The rule up to 0005: a repaired job whose unit's next job opened within 90 days of its
+    # The rule up to 0006: a repaired job whose unit's next job opened within 90 days of its
     # closing came back: jobs 1-3 (the next one 0 days after) and C-11 (C-12 ten days after).
     assert {c for c, (back, _) in _flags(store).items() if back} == {1, 2, 3, 11}
     with store.engine.connect() as connection:

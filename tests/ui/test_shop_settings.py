@@ -58,3 +58,25 @@ def test_changing_it_needs_the_current_one(qtbot, store):
     require_owner(store, "brass kettle 42")
     with pytest.raises(OwnerRequired):
         require_owner(store, "copper teapot 7")
+
+
+def test_terms_of_business_are_kept_and_a_wrong_rate_is_told(qtbot, store):
+    from fixbench.store.shop_terms import ShopTerms, shop_terms
+
+    dialog = _dialog(qtbot, store)
+    for field, text in ((dialog.rate, "22,50"), (dialog.currency, "EUR"),
+                        (dialog.tax, "Prices include VAT at 21 %")):
+        field.clear()
+        qtbot.keyClicks(field, text)
+    dialog.window_days.setValue(60)
+    dialog.save()
+    assert dialog.result() == dialog.DialogCode.Accepted
+    assert shop_terms(store) == ShopTerms(2250, "EUR", "Prices include VAT at 21 %", 60)
+
+    again = _dialog(qtbot, store)
+    assert again.rate.text() == "22.50" and again.window_days.value() == 60
+    again.rate.clear()
+    qtbot.keyClicks(again.rate, "cheap")
+    again.save()
+    assert "not an amount" in again.message.text() and again.isVisible()
+    assert shop_terms(store).labour_rate_cents == 2250

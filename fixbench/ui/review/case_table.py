@@ -14,10 +14,15 @@ from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
 TICKET, OPENED, CUSTOMER, DEVICE, TECHNICIAN, FAULT, OUTCOME, CAME_BACK, MINUTES, CLOSED = range(10)
 HEADERS = ("Ticket", "Opened", "Customer", "Device", "Technician", "Confirmed fault", "Outcome",
-           "Came back", "Bench min", "Closed")
-# How wide each column is, in average characters of the table's font: together they fit the
-# History screen at the window's own size (1366 x 768) beside the filters.
-WIDTH_CHARS = (11, 11, 16, 15, 14, 27, 17, 13, 8, 11)
+           "Came back", "Min", "Closed")
+HEADER_TIPS = {MINUTES: "Bench minutes", CAME_BACK: "Came back under warranty (the return's "
+                                                    "ticket), or a warranty return of a job"}
+# What each column must show whole (its width is this text's, or the header's if wider); the
+# confirmed fault takes the room left, so the table fits the History screen at the window's own
+# size (1366 x 768) beside the filters.
+WIDEST_TEXT = ("W2506-0580", "2025-06-30", "Odile Fenwright", "Halvenor HV-12S",
+               "Teodor Malk", None, "Returned unrepaired", "return of W2506-0580", "999",
+               "2025-06-30")
 SORT_KEY = {TICKET: "ticket", OPENED: "opened", CUSTOMER: "customer", TECHNICIAN: "technician",
             DEVICE: "device", FAULT: "fault", OUTCOME: "outcome", CAME_BACK: "came_back",
             MINUTES: "minutes", CLOSED: "closed"}
@@ -64,6 +69,8 @@ class CaseTableModel(QAbstractTableModel):
                    role: int = Qt.ItemDataRole.DisplayRole):
         if orientation == Qt.Orientation.Horizontal and role == Qt.ItemDataRole.DisplayRole:
             return HEADERS[section]
+        if orientation == Qt.Orientation.Horizontal and role == Qt.ItemDataRole.ToolTipRole:
+            return HEADER_TIPS.get(section)
         return None
 
     def data(self, index: _Index, role: int = Qt.ItemDataRole.DisplayRole):
@@ -78,6 +85,8 @@ class CaseTableModel(QAbstractTableModel):
             return f"{self.names.fault_label(row.fault, row.family)} ({family_name(row.family)})"
         if role == Qt.ItemDataRole.ToolTipRole and index.column() == CAME_BACK:
             return self._came_back_tip(row)
+        if role == Qt.ItemDataRole.ToolTipRole and index.column() == CUSTOMER and row.customer:
+            return row.customer
         if role == Qt.ItemDataRole.TextAlignmentRole and index.column() == MINUTES:
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         return None

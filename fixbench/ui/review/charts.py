@@ -64,13 +64,19 @@ class BarChart(_Chart):
             self.addItem(pg.BarGraphItem(x0=0, y=ys, height=0.7, width=self.values,
                                          brush=BAR_COLOUR, pen=pg.mkPen(None)))
             for y, value in zip(ys, self.values):
-                text = pg.TextItem(self.value_text(value), color="#222222", anchor=(0, 0.5))
-                text.setPos(max(value, 0), y)
+                # Beyond the bar's end: right of a bar that goes right, left of one that goes left.
+                text = pg.TextItem(self.value_text(value), color="#222222",
+                                   anchor=(0, 0.5) if value >= 0 else (1, 0.5))
+                text.setPos(value, y)
                 self.addItem(text)
         self.getAxis("left").setTicks([[(y, _short(label)) for y, label in zip(ys, labels)]])
         self.setYRange(-0.6, max(n, 1) - 0.4, padding=0)
         low = min(0.0, min(self.values, default=0.0))
-        self.setXRange(low * 1.3, max(max(self.values, default=1), 1e-9) * 1.3, padding=0)
+        high = max(0.0, max(self.values, default=0.0))
+        span = (high - low) or 1.0
+        # Room beyond each end for the value written there.
+        self.setXRange(low - 0.3 * span * (low < 0), high + 0.3 * span * (high > 0 or low == 0),
+                       padding=0)
 
     def bar_centre(self, index: int) -> QPointF:
         """Where bar ``index`` is on screen (widget coordinates), for keyboardless clicks in tests."""
@@ -85,7 +91,7 @@ class BarChart(_Chart):
         n = len(self.values)
         index = n - 1 - round(point.y())
         if 0 <= index < n and abs(point.y() - (n - 1 - index)) <= 0.35 \
-                and 0 <= point.x() <= self.values[index]:
+                and min(0.0, self.values[index]) <= point.x() <= max(0.0, self.values[index]):
             self.bar_clicked.emit(index)
 
 
@@ -95,10 +101,12 @@ class MonthLines(_Chart):
     the axis."""
 
     def __init__(self, title: str, scale: float = 1.0, unit: str = "", parent=None,
-                 allow_negative: bool = False) -> None:
+                 allow_negative: bool = False, ceiling: float | None = None,
+                 legend: bool = True) -> None:
         super().__init__(title, parent)
-        self.scale, self.allow_negative = scale, allow_negative
-        self.legend = self.addLegend(offset=(-10, 5))
+        self.scale, self.allow_negative, self.ceiling = scale, allow_negative, ceiling
+        # One line needs no legend: the title names it.
+        self.legend = self.addLegend(offset=(-10, 5)) if legend else None
         self.points: list[tuple[float, float]] = []
         if unit:
             self.getAxis("left").setLabel(unit)
@@ -119,7 +127,13 @@ class MonthLines(_Chart):
         self.setXRange(-0.5, max(len(months), 1) - 0.5, padding=0.02)
         ys = [y for _x, y in self.points]
         low = min(0.0, min(ys, default=0.0)) if self.allow_negative else 0.0
-        self.setYRange(low * HEADROOM, nice_top(max(ys, default=0.0)), padding=0)
+        top = nice_top(max(ys, default=0.0))
+        if self.ceiling is not None:  # a share or a score out of 100 is never over 100
+            # The room above it, where the legend sits, carries no tick.
+            top = min(top, self.ceiling if self.legend is None else self.ceiling * 1.3)
+            self.getAxis("left").setTicks([[(self.ceiling * k / 4, f"{self.ceiling * k / 4:g}")
+                                            for k in range(5)]])
+        self.setYRange(low * HEADROOM, top, padding=0)
 
 
 class MinutesSpread(_Chart):

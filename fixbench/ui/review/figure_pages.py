@@ -52,8 +52,10 @@ class FigurePages:
         self.currency = currency
         money = lambda v: money_text(round(v * 100), currency)  # noqa: E731 - bars are in units
         self.volume = MonthLines("Closed cases, by month taken in", unit="cases")
-        self.first_time = MonthLines("First-time fix, % of repairs", scale=100, unit="%")
-        self.came_back = MonthLines("Came back under warranty, % of repairs", scale=100, unit="%")
+        self.first_time = MonthLines("First-time fix, % of repairs", scale=100, unit="%",
+                                     ceiling=100, legend=False)
+        self.came_back = MonthLines("Came back under warranty, % of repairs", scale=100, unit="%",
+                                    ceiling=100, legend=False)
         self.minutes = MinutesSpread("Bench minutes per case")
         self.faults = BarChart("Most frequent confirmed faults")
         self.parts = BarChart("Parts most often at fault")
@@ -68,9 +70,9 @@ class FigurePages:
         self.people_table, self.people_model = _table(currency)
         self.people = BarChart("Median bench minutes per case, by technician")
         self.practice = MonthLines("Trainees' practice: mean score per month (out of 100)",
-                                   unit="score")
+                                   unit="score", ceiling=100)
         self.turnaround = MonthLines("Median days from intake to handed back, by month taken in",
-                                     unit="days")
+                                     unit="days", legend=False)
         self.backlog = AgeBars("Jobs still open at the end of the period, by days waiting")
         self.money_months = MonthLines("Money by month taken in", scale=0.01,
                                        unit=currency or "amount", allow_negative=True)

@@ -11,9 +11,9 @@ from fixbench.workflows.review import Figure
 
 ROW_ROLE = Qt.ItemDataRole.UserRole + 1  # the figure's row tuple behind a table row
 COLUMN_WORDS = {"name": "Technician", "closed": "Closed", "repaired": "Repaired",
-                "first_time_fix_rate": "First-time fix", "comeback_rate": "Came back",
+                "first_time_fix_rate": "First-time fix", "comeback_rate": "Came back (%)",
                 "median_minutes": "Median min", "p25_minutes": "25% within (min)",
-                "p75_minutes": "75% within (min)", "cases": "Cases", "came_back": "Came back",
+                "p75_minutes": "75% within (min)", "cases": "Cases", "came_back": "Came back (jobs)",
                 "returns": "Returns taken in", "return_minutes": "Minutes on returns",
                 "jobs": "Jobs", "unpriced": "No price", "revenue_cents": "Charged",
                 "parts_cents": "Parts", "labour_cents": "Labour", "margin_cents": "Margin",

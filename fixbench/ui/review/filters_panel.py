@@ -30,12 +30,13 @@ class _CalendarPage(QObject):
     def __init__(self, edit: QDateEdit) -> None:
         super().__init__(edit)
         self.edit, self.month = edit, None
-        edit.calendarWidget().installEventFilter(self)
+        self.calendar = edit.calendarWidget()
+        self.calendar.window().installEventFilter(self)  # the pop-up the calendar sits in
 
     def eventFilter(self, watched, event) -> bool:
         if event.type() == QEvent.Type.Show and self.month is not None \
                 and self.edit.date() == NO_DATE:
-            watched.setCurrentPage(*self.month)
+            self.calendar.setCurrentPage(*self.month)
         return False
 
 
@@ -74,9 +75,9 @@ class FiltersPanel(QWidget):
         form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
         for label, widget in (("&From", self.since), ("&To", self.until),
                               ("Tech&nician", self.technician), ("Fa&mily", self.family),
-                              ("&Device", self.device), ("Confirmed f&ault", self.fault),
+                              ("&Device", self.device), ("F&ault", self.fault),
                               ("&Part", self.part), ("Out&come", self.outcome),
-                              ("Came &back", self.returns), ("C&ustomer", self.customer),
+                              ("Ret&urns", self.returns), ("Cust&omer", self.customer),
                               ("&Search", self.text)):
             form.addRow(label, widget)
         layout = QVBoxLayout(self)

@@ -17,7 +17,7 @@ from fixbench.workflows.review import CaseFilter, FilterChoices, filter_choices
 from fixbench.ui.context import AppContext
 from fixbench.ui.review.busy import BusyStrip
 from fixbench.ui.review.case_story import CaseStoryWindow
-from fixbench.ui.review.case_table import OPENED, ROW_ROLE, WIDTH_CHARS, CaseTableModel
+from fixbench.ui.review.case_table import FAULT, OPENED, ROW_ROLE, WIDEST_TEXT, CaseTableModel
 from fixbench.ui.review.filters_panel import FiltersPanel
 from fixbench.ui.review.history_controller import HistoryController
 from fixbench.workflows.trade_names import TradeNames
@@ -42,10 +42,14 @@ class HistoryScreen(QWidget):
         self.table.verticalHeader().hide()
         header = self.table.horizontalHeader()
         header.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
-        header.setStretchLastSection(True)
-        char = self.table.fontMetrics().averageCharWidth()
-        for column, chars in enumerate(WIDTH_CHARS):
-            header.resizeSection(column, chars * char)
+        header.setSectionResizeMode(FAULT, QHeaderView.ResizeMode.Stretch)
+        header.setStretchLastSection(False)
+        cells, heads = self.table.fontMetrics(), header.fontMetrics()
+        for column, widest in enumerate(WIDEST_TEXT):
+            if widest is not None:
+                title = self.model.headerData(column, Qt.Orientation.Horizontal)
+                header.resizeSection(column, max(cells.horizontalAdvance(widest) + 16,
+                                                 heads.horizontalAdvance(title) + 20))
         self.table.verticalHeader().setDefaultSectionSize(24)
         self.table.setSortingEnabled(True)
         self.table.sortByColumn(OPENED, Qt.SortOrder.DescendingOrder)
@@ -62,7 +66,7 @@ class HistoryScreen(QWidget):
         side = QGroupBox("Which cases")
         side_layout = QVBoxLayout(side)
         side_layout.addWidget(self.filters)
-        side.setFixedWidth(270)
+        side.setFixedWidth(250)
         top = QHBoxLayout()
         top.addWidget(self.count)
         top.addStretch(1)

@@ -3,7 +3,8 @@
 from __future__ import annotations
 
 import pytest
-from PySide6.QtCore import Qt
+from PySide6.QtCore import QPoint, Qt
+from PySide6.QtWidgets import QApplication
 from sqlalchemy import text
 
 from fixbench.ui.review.case_table import HEADERS, ROW_ROLE, SORT_KEY
@@ -166,3 +167,85 @@ def test_apply_filter_from_a_figure(qtbot, history, demo_store):
            and history.controller.case_filter.outcome == "no_fault_found")
     assert history.model.total == _raw_count(demo_store, "outcome = 'no_fault_found'")
     assert history.filters.outcome.currentData() == "no_fault_found"
+
+
+def test_every_column_fits_the_window_at_its_own_size(qtbot, demo_context, tmp_path):
+    """At the window's default size (1366 x 768) every column is on screen, "Closed" too, and no
+    header is cut (issue: columns clipped, "Closed" off screen)."""
+    from fixbench.ui.main_window import START_SIZE, MainWindow
+
+    window = MainWindow(demo_context)
+    qtbot.addWidget(window)
+    window.show()
+    assert (window.width(), window.height()) == START_SIZE
+    history = window.screens["History"]
+    window.tabs.setCurrentWidget(history)
+    settle(qtbot, lambda: history.model.rows and not history.controller.loading)
+    header = history.table.horizontalHeader()
+    visible = history.table.viewport().width()
+    cells = history.table.fontMetrics()
+    for column, title in enumerate(HEADERS):
+        right = header.sectionPosition(column) + header.sectionSize(column)
+        assert right <= visible, title
+        assert header.fontMetrics().horizontalAdvance(title) + 8 <= header.sectionSize(column), title
+    for row in range(history.model.rowCount()):  # tickets, dates and outcomes shown whole
+        for column in (0, 1, 6, 9):
+            text = history.model.index(row, column).data() or ""
+            assert cells.horizontalAdvance(text) + 8 <= header.sectionSize(column), text
+    assert window.grab().save(str(tmp_path / "history-1366.png"))
+
+
+def test_date_pickers_open_on_the_months_the_record_holds(qtbot, history, demo_store):
+    """Left at "any day" a picker opens on the first (From) or last (To) month with cases, not
+    on January 2000 (issue)."""
+    with demo_store.engine.connect() as connection:
+        first, last = connection.execute(text("SELECT min(opened_at), max(opened_at) "
+                                              "FROM cases")).one()
+    first, last = (str(first)[:7], str(last)[:7])
+    for edit, month in ((history.filters.since, first), (history.filters.until, last)):
+        qtbot.mouseClick(edit, Qt.MouseButton.LeftButton,
+                         pos=QPoint(edit.width() - 6, edit.height() // 2))  # its pop-up arrow
+        calendar = edit.calendarWidget()
+        qtbot.waitUntil(calendar.isVisible, timeout=3000)
+        assert f"{calendar.yearShown()}-{calendar.monthShown():02d}" == month
+        calendar.window().hide()
+        QApplication.processEvents()
+
+
+def test_came_back_filter_and_column(qtbot, history, demo_store):
+    combo = history.filters.returns
+    combo.setCurrentIndex(combo.findData("came_back"))
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.returns == "came_back")
+    rows = _all_rows(qtbot, history)
+    assert rows and len(rows) == _raw_count(demo_store, "came_back")
+    column = HEADERS.index("Came back")
+    assert all(history.model.index(r, column).data().startswith("yes")
+               for r in range(history.model.rowCount()))
+    combo.setCurrentIndex(combo.findData("is_return"))
+    settle(qtbot, lambda: not history.controller.loading
+           and history.controller.case_filter.returns == "is_return")
+    assert history.model.total == _raw_count(demo_store, "comeback_of_id IS NOT NULL") > 0
+
+
+def test_customer_column_search_and_their_jobs_one_click_away(qtbot, history, demo_store):
+    with demo_store.engine.connect() as connection:
+        customer_id, name, jobs = connection.execute(text(
+            "SELECT c.id, c.name, count(*) FROM customers c JOIN cases k ON k.customer_id = c.id "
+            "GROUP BY c.id, c.name HAVING count(*) > 1 ORDER BY count(*) DESC, c.id LIMIT 1")).one()
+    qtbot.keyClicks(history.filters.text, name.split()[1])
+    settle(qtbot, lambda: history.controller.case_filter.text == name.split()[1]
+           and not history.controller.loading)
+    column = HEADERS.index("Customer")
+    shown = {history.model.index(r, column).data() for r in range(history.model.rowCount())}
+    assert name in shown
+    row = next(r for r in range(history.model.rowCount())
+               if history.model.index(r, column).data() == name)
+    story = history.open_case(row)
+    settle(qtbot, lambda: story.story is not None)
+    assert story.customer_button.isEnabled()
+    qtbot.mouseClick(story.customer_button, Qt.MouseButton.LeftButton)
+    settle(qtbot, lambda: history.controller.case_filter.customer_id == customer_id
+           and not history.controller.loading)
+    assert history.model.total == jobs
+    assert history.filters.customer.currentText() == story.story.customer

@@ -22,8 +22,8 @@ once its text has moved) under the foreign-keys-off discipline of ``fixbench.sto
 The backfill rules are frozen copies of this revision's rules (a migration must not change when
 application code does).
 
-Revision ID: 0006
-Revises: 0005
+Revision ID: 0007
+Revises: 0006
 """
 
 from datetime import timedelta
@@ -31,12 +31,12 @@ from datetime import timedelta
 import sqlalchemy as sa
 from alembic import op
 
-revision = "0006"
-down_revision = "0005"
+revision = "0007"
+down_revision = "0006"
 branch_labels = None
 depends_on = None
 
-COMEBACK_DAYS = 90  # the rule that made came_back up to revision 0005
+COMEBACK_DAYS = 90  # the rule that made came_back up to revision 0006
 
 # Every column the owner's figures read, so each figure of a period is answered from this one
 # index without visiting the wide case rows (a visit per case took seconds at 100,000 cases).
