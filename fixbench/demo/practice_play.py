@@ -25,6 +25,7 @@ from fixbench.practice.scenario import draw_scenario
 from fixbench.demo.plan import DemoPractice
 
 MAX_CHECKS = 25  # a trainee gives up and commits after this many checks
+MAX_ACTIONS = 40  # ... or after this many reaches for a check, stopped ones included
 SURE = 0.6  # the first suspect's chance at which a hasty trainee stops and commits
 
 
@@ -69,8 +70,10 @@ def play_round(knowledge: KnowledgeBase, planned: DemoPractice) -> tuple[Practic
     rng = random.Random(planned.seed)
     ways = habits(planned.progress)
     coach_at = rng.randrange(1, 6) if rng.random() < ways.asks_coach else None
-    while len(practice.steps) < MAX_CHECKS:
-        if coach_at is not None and len(practice.steps) == coach_at:
+    for _reach in range(MAX_ACTIONS):
+        if len(practice.steps) >= MAX_CHECKS:
+            break
+        if coach_at is not None and len(practice.steps) == coach_at and not practice.coach_looks:
             practice.coach()
         top = practice.state.suspects[0]
         if top.probability >= SURE and rng.random() < ways.stops_when_sure:
@@ -78,7 +81,7 @@ def play_round(knowledge: KnowledgeBase, planned: DemoPractice) -> tuple[Practic
         check_id = _next_check(rng, practice, ways)
         if check_id is None:
             break
-        practice.take(check_id)
+        practice.take(check_id)  # a check a colleague would stop is stopped, and counted
     suspects = practice.state.suspects
     named = suspects[1] if len(suspects) > 1 and rng.random() < ways.near_miss else suspects[0]
     replaced = {action.part for action in practice.state.final_conclusion().replace}

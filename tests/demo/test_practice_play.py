@@ -9,7 +9,7 @@ import pytest
 from fixbench.demo.plan import plan_practice
 from fixbench.demo.practice_play import habits, play_round, practice_attempts
 from fixbench.practice.progress import AttemptRecord, attempt_fields
-from fixbench.practice.scoring import READY, score_round
+from fixbench.practice.scoring import READY
 
 EVERY = 12  # rounds sampled across the two years
 
@@ -32,20 +32,15 @@ def test_each_round_is_practices_own_debrief_of_the_round_played(knowledge, samp
     for plan, kept in zip(planned[:6], attempts):
         practice, debrief = play_round(knowledge, plan)  # the same plan plays the same round
         assert kept == {**attempt_fields(practice, debrief), "attempted_at": plan.attempted_at}
-        score = debrief.score
-        # The score is practice's own, from what the round did (the debrief's inputs).
-        again = score_round(true_group=practice.state.model.group_of(practice.scenario.fault_id),
-                            failed_parts=practice.unit.failed_parts,
-                            fault_named=practice.commitment.fault_id,
-                            parts_named=practice.commitment.parts, minutes=practice.clock,
-                            par=debrief.engine.minutes, slips=practice.slips)
-        assert again == score and kept["score"] == score.total
+        assert kept["score"] == debrief.score.total  # practice's own score of the round
+        assert kept["safety_slips"] == len(debrief.slips) == len(practice.slips)
 
 
 def test_no_round_with_a_slip_is_kept_as_bench_ready(sampled):
     _planned, attempts = sampled
-    records = [AttemptRecord(**{k: v for k, v in a.items() if k != "attempted_at"})
-               for a in attempts]
+    kept = ("scenario", "checks_used", "minutes", "score", "safety_slips", "coach_used",
+            "fuse_blown")
+    records = [AttemptRecord(**{k: a[k] for k in kept}) for a in attempts]
     assert any(r.safety_slips for r in records)
     for record in records:
         if record.safety_slips or record.fuse_blown:
