@@ -72,8 +72,9 @@ def _numbers(snap: FiguresSnapshot, currency: str) -> tuple[tuple[str, str], ...
         ("Labour (bench time at the labour rate)", money_text(labour, currency)),
         ("Margin", money_text(head["margin_cents"], currency)
          + (f" ({unpriced} jobs closed without a price)" if unpriced else "")),
-        ("Warranty returns taken in", f"{returns}: {minutes} min and "
-                                      f"{money_text(cost, currency)} spent again"),
+        ("Warranty returns taken in", f"{returns} {'job' if returns == 1 else 'jobs'}: "
+                                      f"{minutes} min and {money_text(cost, currency)} spent "
+                                      "again"),
         ("Engine's first suspect was right",
          f"{percent(head['first_suspect_rate'])} of {head['first_suspect_confirmed']}"))
 

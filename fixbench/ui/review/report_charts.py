@@ -104,6 +104,8 @@ class ChartObjects(QPyTextObject):
         values = [v for _, series in chart.series for v in series if v is not None]
         # From zero to a round value above the largest, so a small rate is not drawn flat.
         top = nice_top(max(values, default=0.0))
+        if chart.percent:
+            top = min(top, 1.0)  # a share is never over 100 %
         painter.setPen(QPen(QColor("#bbbbbb"), 0.5 * self.scale))
         for k in range(5):
             y = plot.bottom() - plot.height() * k / 4
