@@ -1,7 +1,8 @@
 """`fixbench export`: cases of a period as CSV or JSON (owner only), or one case as re-runnable JSON.
 
-One case carries what the bench needs to re-run it and no customer details; ``--with-customer``
-adds them for the owner, with the passphrase. Nothing is written to ``--out`` until the owner's
+One case carries what the bench needs to re-run it and no customer details, and a period's cases
+leave customers' names and contacts out; ``--with-customer`` adds them for the owner, with the
+passphrase. Nothing is written to ``--out`` until the owner's
 passphrase is accepted, and the file appears whole (written beside it, then renamed), owner-only.
 """
 
@@ -22,7 +23,8 @@ HELP = "export cases of a period as CSV (owner only), or one case as JSON for `f
 def add_arguments(parser) -> None:
     parser.add_argument("--case", metavar="TICKET", help="export this one case as JSON")
     parser.add_argument("--with-customer", action="store_true",
-                        help="with --case: add who the customer is (owner only)")
+                        help="add who the customer is (owner only; personal data: only when the "
+                             "file needs it)")
     parser.add_argument("--since", help="first day, YYYY-MM-DD (CSV)")
     parser.add_argument("--until", help="last day, YYYY-MM-DD, included (CSV)")
     parser.add_argument("--out", help="file to write (default: standard output)")
@@ -44,8 +46,6 @@ def run(args) -> int:
 
     if args.case is None and (args.since is None or args.until is None):
         raise UsageError("give --case TICKET, or --since and --until for a CSV")
-    if args.with_customer and args.case is None:
-        raise UsageError("--with-customer goes with --case (a period's CSV always has the customer)")
     period = None
     if args.case is None:
         since, until = _day(args.since, "--since"), _day(args.until, "--until")
@@ -91,16 +91,19 @@ def _period(store, args, period, passphrase: str) -> int:
     require_owner(store, passphrase)  # before anything is written anywhere
     since, until = period
     if args.json:
-        rows = export_cases_rows(store, since=since, until=until, passphrase=passphrase)
+        rows = export_cases_rows(store, since=since, until=until, passphrase=passphrase,
+                                 with_customers=args.with_customer)
         if args.out is None:
             print_json(rows)
         else:
             _write(args.out, json.dumps(rows, ensure_ascii=False, indent=2) + "\n")
         return len(rows)
     if args.out is None:
-        return export_cases_csv(store, sys.stdout, since=since, until=until, passphrase=passphrase)
+        return export_cases_csv(store, sys.stdout, since=since, until=until, passphrase=passphrase,
+                                with_customers=args.with_customer)
     buffer = io.StringIO(newline="")
-    count = export_cases_csv(store, buffer, since=since, until=until, passphrase=passphrase)
+    count = export_cases_csv(store, buffer, since=since, until=until, passphrase=passphrase,
+                             with_customers=args.with_customer)
     _write(args.out, buffer.getvalue())
     return count
 

@@ -237,3 +237,11 @@ def test_demo_db_json_says_where_what_and_its_digest(tmp_path, capsys):
     built = json.loads(capsys.readouterr().out)
     assert built["path"] == str(path) and built["days"] == 3
     assert built["content_digest"] == content_digest_of(path)
+
+
+def test_a_periods_csv_names_customers_only_when_the_owner_asks(shop_file, tmp_path, owner_types):
+    out = tmp_path / "with.csv"
+    assert main(["export", "--since", "2024-01-01", "--until", "2024-02-01", "--out", str(out),
+                 "--with-customer"]) == 0
+    header, row = out.read_text().splitlines()[:2]
+    assert header.endswith("customer,customer_contact") and row.endswith("Mrs Quorrel,0123")
