@@ -32,6 +32,10 @@ def run(args) -> int:
                else f"no readable shop now (it {plan.problem_now})")
         print(f"The shop has {now}; restored from {source} it will have {plan.cases_after}.",
               file=sys.stderr)
+        if plan.others_open:
+            print("Another bench has this shop open: the restore waits for a write in progress and "
+                  "holds that bench's writes until it is done; close and reopen fixbench there "
+                  "afterwards.", file=sys.stderr)
         passphrase = ask_owner_passphrase("restore") if plan.needs_passphrase else None
         done = restore(plan, passphrase, on_wait=lambda text: print(text, file=sys.stderr))
     except StoreError as err:
@@ -40,7 +44,7 @@ def run(args) -> int:
         print_json({"restored_from": str(source), "cases_before": plan.cases_now,
                     "cases_after": plan.cases_after, "previous_backup": _text(done.previous_backup),
                     "set_aside": _text(done.set_aside), "after_backup": _text(done.after_backup),
-                    "waited_for_another_bench": done.waited})
+                    "other_benches_open": plan.others_open, "waited_for_another_bench": done.waited})
         return 0
     print(f"restored from {source}: the shop had {plan.cases_now if plan.cases_now is not None else 'no'} "
           f"cases and now has {plan.cases_after}")

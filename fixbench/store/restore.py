@@ -46,6 +46,7 @@ class RestorePlan:
     cases_now: int | None  # None: no readable shop there now
     problem_now: str | None  # why there is none ("is damaged (...)", "does not exist yet")
     needs_passphrase: bool
+    others_open: bool = False  # another bench has the SQLite shop open (see _open_elsewhere)
 
 
 @dataclass(frozen=True)
@@ -74,7 +75,8 @@ def plan_restore(url: str, source: Path) -> RestorePlan:
         raise StoreInputError(f"{source} is the shop's database itself; name a backup of it")
     cases_now, problem = _current(url, path)
     needs = cases_now is not None or _has_passphrase(source)
-    return RestorePlan(url, source, proof.cases, cases_now, problem, needs)
+    others = path is not None and cases_now is not None and _open_elsewhere(path)
+    return RestorePlan(url, source, proof.cases, cases_now, problem, needs, others)
 
 
 def restore(plan: RestorePlan, passphrase: str | None,
@@ -119,6 +121,28 @@ def _current(url: str, path: Path | None) -> tuple[int | None, str | None]:
             return session.scalar(select(func.count()).select_from(Case)), None
     finally:
         store.close()
+
+
+def _open_elsewhere(database: Path) -> bool:
+    """Whether another connection has the SQLite shop open. A WAL database leaves WAL only when no
+    other connection has it open (each holds a shared lock while open; sqlite.org/wal.html,
+    "Persistence of WAL mode" and the locking it describes), so leaving WAL without waiting fails
+    exactly then; when it succeeds the shop is put straight back in WAL, its records unchanged."""
+    connection = sqlite3.connect(database, timeout=0, isolation_level=None)
+    try:
+        if connection.execute("PRAGMA journal_mode").fetchone()[0] != "wal":
+            return False
+        left = connection.execute("PRAGMA journal_mode=DELETE").fetchone()[0]
+        if left == "wal":
+            return True  # SQLite kept WAL: it could not have the file to itself
+        connection.execute("PRAGMA journal_mode=WAL")
+        return False
+    except sqlite3.OperationalError as err:
+        if "locked" in str(err) or "busy" in str(err):
+            return True
+        raise
+    finally:
+        connection.close()
 
 
 def _has_passphrase(source: Path) -> bool:

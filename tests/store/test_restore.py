@@ -65,6 +65,7 @@ def test_restore_says_the_counts_puts_the_backup_back_and_keeps_what_was_there(t
     _add_cases(path, 1, "after-backup")
     plan = plan_restore(str(path), backup)
     assert (plan.cases_now, plan.cases_after, plan.needs_passphrase) == (3, 2, True)
+    assert not plan.others_open
     done = restore(plan, OWNER)
     assert _count(path) == 2
     assert backup_kind(done.previous_backup) == "before-restore" and _count(done.previous_backup) == 3
@@ -199,6 +200,7 @@ def test_restore_waits_for_a_bench_mid_write_and_loses_none_of_its_writes(tmp_pa
     store, tech, device = _shop(path, cases=2)
     backup = backup_database(path).path
     plan = plan_restore(str(path), backup)
+    assert plan.others_open  # `store` is the other bench: told before the owner is asked
     bench = sqlite3.connect(path, isolation_level=None)
     bench.execute("BEGIN IMMEDIATE")  # a bench in the middle of writing a reading
     bench.execute("UPDATE cases SET notes = 'written mid-restore' WHERE ticket_ref = 'R-0'")
