@@ -28,6 +28,7 @@ def test_benchmark_reports_its_documented_figures(result):
     assert isinstance(result["hypotheses"], int) and result["hypotheses"] > 0
     assert isinstance(result["checks"], int) and result["checks"] > 0
     assert result["step_ms_median"] is None or isinstance(result["step_ms_median"], numbers.Real)
+    assert result["replayed_readings"] == 5100 and result["replay_ms"] > 0
 
 
 def test_benchmark_finds_no_unsafe_proposal(result):
