@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import os
 import sqlite3
+import stat
 from dataclasses import dataclass
 from datetime import UTC, datetime, timedelta
 from pathlib import Path
@@ -30,7 +31,7 @@ from sqlalchemy import Connection
 from fixbench.store.errors import StoreError, StoreFileError
 from fixbench.store.health import Proof, check_sqlite_file, good_backups, prove
 from fixbench.store.location import (backup_anchor, backup_folder, backup_path, create_private_file,
-                                     list_backups, make_private_folder, newest_backup)
+                                     file_status, list_backups, make_private_folder, newest_backup)
 
 KEEP_BACKUPS = 14
 BUSY_TIMEOUT_S = 30.0
@@ -61,8 +62,11 @@ class BackupMade:
 def backup_database(database: Path, keep: int = KEEP_BACKUPS, *, kind: str = "",
                     accept_fewer: bool = False) -> BackupMade:
     """Back up the SQLite shop ``database`` beside it (see the module's docstring)."""
-    if not database.exists():
+    status = file_status(database)
+    if status is None:
         raise StoreError(f"{database} does not exist; there is nothing to back up")
+    if not stat.S_ISREG(status.st_mode):
+        raise StoreError(f"{database} is not a database file; there is nothing to back up")
     check_sqlite_file(database)
     stamp, partial = _partial(database, kind)
     try:
@@ -113,7 +117,8 @@ def backup_if_due(database: Path | None, every: timedelta = timedelta(hours=24),
     It reads the whole file twice (the copy and its proof), so call it off the GUI thread. Raises
     :class:`StoreFileError` for a damaged database, naming the newest good backup.
     """
-    if database is None or not database.is_file() or database.stat().st_size == 0:
+    status = None if database is None else file_status(database)
+    if status is None or not stat.S_ISREG(status.st_mode) or status.st_size == 0:
         return None  # nothing to back up; opening the shop says what is wrong with the name
     newest = newest_backup(database)
     if newest is not None:

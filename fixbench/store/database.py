@@ -27,8 +27,8 @@ from sqlalchemy.orm import Session, sessionmaker
 
 from fixbench.store.errors import StoreError, StoreFileError, StoreLocationError
 from fixbench.store.health import check_sqlite_file, newest_good_backup
-from fixbench.store.location import (DEFAULT_FILE_NAME, create_private_file, make_private_folder,
-                                     resolve_url, sqlite_path)
+from fixbench.store.location import (DEFAULT_FILE_NAME, create_private_file, file_status,
+                                     make_private_folder, resolve_url, sqlite_path)
 
 BUSY_TIMEOUT_MS = 30_000
 READ_ONLY_OPTION = "fixbench_read_only"
@@ -109,15 +109,13 @@ def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True,
 
 def _check_place(path: Path, create: bool) -> None:
     """Refuse, before anything is created, a name that cannot be a shop database file."""
-    try:
-        mode = path.stat().st_mode
-    except FileNotFoundError:
+    status = file_status(path)
+    if status is None:
         if not create:
             raise StoreLocationError(f"there is no shop database at {path}; check --db or "
-                                     "FIXBENCH_DB") from None
+                                     "FIXBENCH_DB")
         return
-    except OSError as err:
-        raise StoreLocationError(f"{path}: {err.strerror or err}") from None
+    mode = status.st_mode
     if stat.S_ISDIR(mode):
         raise StoreLocationError(f"{path} is a folder; name the database file, such as "
                                  f"{path / DEFAULT_FILE_NAME}")

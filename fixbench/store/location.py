@@ -26,6 +26,7 @@ from __future__ import annotations
 import os
 import re
 import shutil
+import stat
 from pathlib import Path
 
 from platformdirs import user_data_path
@@ -49,6 +50,19 @@ def data_folder() -> Path:
     folder = user_data_path(APP_NAME, appauthor=False)
     make_private_folder(folder)
     return folder
+
+
+def file_status(path: Path) -> os.stat_result | None:
+    """What is at ``path`` (None when nothing is): one line, not a trace, when the name itself is
+    refused (too long, a file where a folder should be, no permission)."""
+    try:
+        return path.stat()
+    except (FileNotFoundError, NotADirectoryError):
+        return None
+    except OSError as err:
+        from fixbench.store.errors import StoreLocationError
+
+        raise StoreLocationError(f"{path}: {err.strerror or err}") from None
 
 
 def make_private_folder(folder: Path) -> None:
@@ -133,7 +147,8 @@ def _stamp_part(backup: Path) -> str:
 def list_backups(database: Path, kinds: tuple[str, ...] = BACKUP_KINDS) -> list[Path]:
     """Backups of ``database`` of the given kinds, oldest first (their names sort by time)."""
     folder = backup_folder(database)
-    if not folder.is_dir():
+    status = file_status(folder)
+    if status is None or not stat.S_ISDIR(status.st_mode):
         return []
     prefix = f"{database.stem}-"
     return sorted(p for p in folder.iterdir()

@@ -31,8 +31,8 @@ from fixbench.store.backup import BUSY_TIMEOUT_S, backup_database, backup_server
 from fixbench.store.database import open_store
 from fixbench.store.errors import ShopInUse, StoreError, StoreFileError, StoreInputError
 from fixbench.store.health import check_sqlite_file, newest_good_backup, prove, refuse_newer
-from fixbench.store.location import (backup_anchor, backup_folder, make_private_folder, resolve_url,
-                                     sqlite_path)
+from fixbench.store.location import (backup_anchor, backup_folder, file_status, make_private_folder,
+                                     resolve_url, sqlite_path)
 from fixbench.store.models import Case
 from fixbench.store.owner import has_owner_passphrase, require_owner
 from fixbench.store.shop_copy import clear_rows, copy_rows, reset_sequences, shop_tables
@@ -71,7 +71,7 @@ def plan_restore(url: str, source: Path) -> RestorePlan:
         raise StoreInputError(f"{source} {proof.problem}; nothing was restored")
     refuse_newer(str(source), proof.revision)
     path = sqlite_path(url)
-    if path is not None and path.exists() and source.resolve() == path.resolve():
+    if path is not None and file_status(path) is not None and source.resolve() == path.resolve():
         raise StoreInputError(f"{source} is the shop's database itself; name a backup of it")
     cases_now, problem = _current(url, path)
     needs = cases_now is not None or _has_passphrase(source)
@@ -109,7 +109,8 @@ def restore(plan: RestorePlan, passphrase: str | None,
 
 def _current(url: str, path: Path | None) -> tuple[int | None, str | None]:
     if path is not None:
-        if not path.exists() or path.stat().st_size == 0:
+        status = file_status(path)
+        if status is None or status.st_size == 0:
             return None, "does not exist yet"
         try:
             check_sqlite_file(path)

@@ -29,9 +29,7 @@ __all__ = ["OpenCaseRow", "ShopTerms", "Store", "add_person", "bench_people",
 
 def open_shop(db: str | None) -> Store:
     """Back the file up if a backup is due, then open and migrate the shop's database."""
-    path = sqlite_path(resolve_url(db))
-    if path is not None and path.exists() and path.stat().st_size > 0:
-        backup_if_due(path)
+    backup_if_due(sqlite_path(resolve_url(db)))  # nothing for a new, empty or server shop
     return open_store(db)
 
 

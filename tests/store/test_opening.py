@@ -129,3 +129,18 @@ def test_the_shop_its_wal_backups_and_exports_are_the_owners_alone(tmp_path, cap
     assert _mode(path) == 0o600
     assert _mode(made.path) == 0o600 and _mode(made.path.parent) == 0o700
     assert _mode(out) == 0o600
+
+
+@pytest.mark.parametrize("command", [["backup"], ["backup", "--list"], ["restore"], ["cases"],
+                                     ["export", "--case", "K-1"]])
+@pytest.mark.parametrize("name", ["folder", "too long", "device"])
+def test_every_command_on_a_name_that_cannot_be_a_shop_is_one_line(tmp_path, capsys, command, name):
+    db = {"folder": str(tmp_path), "too long": str(tmp_path / ("a" * 300 + ".sqlite")),
+          "device": os.devnull}[name]
+    code = main(["--db", db, *command])
+    err = capsys.readouterr().err
+    if command == ["backup", "--list"] and name != "too long":
+        assert code == 0  # nothing listed: no backups of a folder or a device
+        return
+    assert code == 2 and len(err.strip().splitlines()) == 1, err
+    assert list(tmp_path.iterdir()) == []
