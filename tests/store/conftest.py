@@ -1,13 +1,18 @@
 """Fixtures for store tests: a fresh store per test on SQLite and, when a server is given, PostgreSQL.
 
 Set FIXBENCH_TEST_PG_URL (see .ci/start-postgres) to run the ``postgres`` half; each test then
-gets its own freshly created database on that server, dropped afterwards.
+gets its own freshly created database on that server, dropped afterwards. A store's database is
+created at the head revision as a copy of one migrated once per run (PostgreSQL's CREATE DATABASE
+... TEMPLATE; SQLite's copy is made by tests/conftest.py), except in tests marked ``migrations``,
+whose databases start empty.
 """
 
 from __future__ import annotations
 
 import os
 import uuid
+from collections.abc import Iterator
+from contextlib import contextmanager
 from datetime import datetime, timedelta
 
 import pytest
@@ -17,33 +22,62 @@ from sqlalchemy.engine import make_url
 from fixbench.store import open_store
 from fixbench.store.cases import (RankedSuspect, add_reading, add_verification, close_case,
                                   open_case)
+from fixbench.store.migrate import upgrade_to_head
 from fixbench.store.people import add_device, add_technician
 
 PG_ENV = "FIXBENCH_TEST_PG_URL"
 RATINGS = {"mains": "230 V", "frequency": "50 Hz", "output": "5 V", "current": "2 A"}
 
 
-@pytest.fixture
-def pg_database_url():
-    """A brand-new empty database on the test PostgreSQL server (skipped when none is set)."""
+def _pg_server() -> str:
     base = os.environ.get(PG_ENV)
     if not base:
         pytest.skip(f"{PG_ENV} is not set")
+    return base
+
+
+@contextmanager
+def _pg_database(base: str, template: str | None = None) -> Iterator[str]:
+    """A new database on the server (a copy of ``template`` if given), dropped afterwards."""
     name = f"fixbench_test_{uuid.uuid4().hex[:12]}"
+    copied = f' TEMPLATE "{template}"' if template else ""
     admin = create_engine(base, isolation_level="AUTOCOMMIT")
     with admin.connect() as connection:
-        connection.execute(text(f'CREATE DATABASE "{name}"'))
-    yield make_url(base).set(database=name).render_as_string(hide_password=False)
-    with admin.connect() as connection:
-        connection.execute(text(f'DROP DATABASE "{name}" WITH (FORCE)'))
-    admin.dispose()
+        connection.execute(text(f'CREATE DATABASE "{name}"{copied}'))
+    try:
+        yield make_url(base).set(database=name).render_as_string(hide_password=False)
+    finally:
+        with admin.connect() as connection:
+            connection.execute(text(f'DROP DATABASE "{name}" WITH (FORCE)'))
+        admin.dispose()
+
+
+@pytest.fixture
+def pg_database_url():
+    """A brand-new empty database on the test PostgreSQL server (skipped when none is set)."""
+    with _pg_database(_pg_server()) as url:
+        yield url
+
+
+@pytest.fixture(scope="session")
+def pg_head_template():
+    """The name of an empty database at the head revision, migrated once per run."""
+    with _pg_database(_pg_server()) as url:
+        store = open_store(url, migrate=False)
+        upgrade_to_head(store)
+        store.close()  # a template database takes no connections while it is copied
+        yield make_url(url).database
 
 
 @pytest.fixture(params=["sqlite", pytest.param("postgres", marks=pytest.mark.postgres)])
 def store_url(request, tmp_path):
     if request.param == "sqlite":
-        return str(tmp_path / "shop.sqlite")
-    return request.getfixturevalue("pg_database_url")
+        yield str(tmp_path / "shop.sqlite")
+    elif request.node.get_closest_marker("migrations") is not None:
+        yield request.getfixturevalue("pg_database_url")
+    else:
+        with _pg_database(_pg_server(), request.getfixturevalue("pg_head_template")) as url:
+            yield url
 
 
 @pytest.fixture

@@ -15,6 +15,9 @@ from fixbench.store.case_flags import recompute_all_flags
 from fixbench.store.migrate import MigrationBrokeForeignKeys, current_revision, head_revision, upgrade
 from fixbench.store.models import Base
 
+# Every shop here is migrated by alembic, not copied from one migrated earlier (tests/conftest.py).
+pytestmark = pytest.mark.migrations
+
 TABLES = ("technicians", "devices", "cases", "readings", "suspects", "repair_actions",
           "verifications", "practice_attempts", "amendments")
 
