@@ -16,13 +16,13 @@ primer, section 6]; healthy figures come from :mod:`fixbench.physics.healthy`.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from functools import lru_cache
 
 from fixbench.knowledge.graph import power_order
 from fixbench.knowledge.model import Family
 from fixbench.physics import bulk_rail
-from fixbench.physics.healthy import HealthyUnit
+from fixbench.physics.healthy import HealthyUnit, auxiliary_vcc
 from fixbench.physics.ratings import Ratings
 from fixbench.physics.sizing import bulk_capacitance, input_power, part_value
 from fixbench.physics.startup import Hiccup, hiccup
@@ -51,6 +51,9 @@ class Operation:
     primary_short: bool
     fuse_blows: bool  # plain mains would (again) blow the fuse
     hiccup: Hiccup | None = None  # Vcc saw-tooth and its period, where the controller restarts
+    # Parts that fail within the first switching cycles of a power-up (part id, mode): the values
+    # and outcomes above are those of the unit after that damage.
+    damage: tuple[tuple[str, str], ...] = ()
 
 
 @dataclass
@@ -132,7 +135,11 @@ def _startup_and_drive(w: _Work) -> None:
             w.flags["drive"] = "none"
         elif w.mode("drive_resistor") == "open" or w.mode("sense_resistor") == "open":
             w.flags["drive"] = "stalled"  # base held up, no feedback winding drive: no oscillation
-        elif w.mode("drive_capacitor") in ("dried", "open", "short"):
+        elif w.mode("drive_capacitor") == "open":
+            # No path from the feedback winding to the base: nothing keeps the switch on once the
+            # bias resistor has turned it on, as with an open drive resistor [practice].
+            w.flags["drive"] = "stalled"
+        elif w.mode("drive_capacitor") in ("dried", "short"):
             w.flags["drive"] = "bursting"
         else:
             w.flags["drive"] = "running"
@@ -141,8 +148,19 @@ def _startup_and_drive(w: _Work) -> None:
         w.flags["drive"], w.values["vcc_voltage"] = "none", 0.3
     elif w.mode("start_resistor") == "open":
         w.flags["drive"], w.values["vcc_voltage"] = "none", 0.0
+    elif w.mode("aux_diode") == "short":
+        # Vcc joined to the auxiliary winding, a few ohms to primary ground: the start-up current
+        # (a fraction of a milliamp) leaves millivolts on Vcc; the controller never starts.
+        w.flags["drive"], w.values["vcc_voltage"] = "none", 0.0
     elif w.mode("controller") == "dead":
         w.flags["drive"], w.values["vcc_voltage"] = "latched", design.vcc_clamp_v
+    elif w.mode("optocoupler") == "short":
+        # The opto transistor holds the error amplifier's output (COMP/FB) at ground: below its two
+        # diode offsets the current-sense reference is zero and no gate pulse leaves the controller
+        # [src: UC3842 datasheet, block diagram and error-amplifier section]. The controller starts,
+        # draws its running current with no help from the auxiliary winding and stops at its stop
+        # threshold: Vcc cycles, silently, with the drive off.
+        w.flags["drive"] = "idle"
     elif w.mode("vcc_capacitor") == "dried" or w.mode("aux_diode") != "ok":
         w.flags["drive"] = "bursting"  # starts, cannot hold Vcc until the aux winding takes over
     else:
@@ -164,7 +182,26 @@ def _switch_and_transfer(w: _Work) -> None:
         drive = "stalled"  # no collector current, no feedback-winding drive: nothing restarts it
     elif drive == "running" and (not transfer or output_shorted or no_secondary):
         drive = "bursting"  # nothing comes back on the aux winding: the controller restarts
-    w.flags.update(drive=drive, transfer=transfer, output_shorted=output_shorted, no_secondary=no_secondary)
+    elif drive == "running" and not self_oscillating:
+        # The auxiliary winding mirrors the output the loop holds; under the stop threshold the
+        # controller stops and restarts from the start-up resistor: a loop held low hiccups
+        # [src: UC3842 datasheet, UVLO 16 V on / 10 V off; textbook flyback aux relation].
+        design = w.family.design
+        aux = min(auxiliary_vcc(design, w.ratings, _held_output(w)), design.vcc_clamp_v)
+        w.values["vcc_voltage"] = aux
+        if aux < design.stop_v:
+            drive = "bursting"
+    # Energy reaches the transformer in pulses that a person hears (ticking) only while the switch
+    # conducts; a controller cycling on its Vcc with the switch, its drive or the primary open is silent.
+    audible = transfer and drive in ("running", "bursting")
+    w.flags.update(drive=drive, transfer=transfer, output_shorted=output_shorted, no_secondary=no_secondary,
+                   audible=audible)
+
+
+def _held_output(w: _Work) -> float:
+    """The output the feedback loop holds while the unit runs (no load)."""
+    factor = {"open": OPEN_LOOP_OUTPUT, "pulled_low": PULLED_LOW_OUTPUT}.get(w.flags["loop"], 1.0)
+    return factor * w.v_out
 
 
 def _output(w: _Work) -> None:
@@ -199,13 +236,10 @@ def _control_signals(w: _Work) -> None:
     """Vcc, drive frequency, drain peak, feedback reference, opto LED, switch base."""
     design, values, drive, loop = w.family.design, w.values, w.flags.get("drive", "none"), w.flags["loop"]
     f_sw = w.nominal("switching_frequency")
-    running = drive == "running"
     if design.drive == "controller":
-        start, stop, target = design.start_v, design.stop_v, design.vcc_target_v
-        if drive == "bursting":
+        start, stop = design.start_v, design.stop_v
+        if drive in ("bursting", "idle"):
             values["vcc_voltage"] = (start + stop) / 2  # a meter averages the saw-tooth
-        elif running:
-            values["vcc_voltage"] = min(target * (1.5 if loop == "open" else 1.0), design.vcc_clamp_v)
         values.setdefault("vcc_voltage", 0.0)
         values["vcc_behaviour"] = values["vcc_voltage"]
     if drive == "running":
@@ -221,13 +255,10 @@ def _control_signals(w: _Work) -> None:
         frequency = 0.0  # measured at the gate
     values["switching_frequency"] = frequency
     bulk = values.get("bulk_voltage", 0.0)
-    rating = design.switch_rating_v
-    if frequency == 0.0 or not w.flags.get("transfer"):
-        values["drain_peak"] = bulk
-    elif w.mode("clamp_diode") == "open":
-        values["drain_peak"] = 1.15 * rating
-    elif w.mode("clamp_resistor") == "open":
-        values["drain_peak"] = 1.05 * rating
+    if w.mode("transformer") == "open":
+        values["drain_peak"] = 0.0  # no path from bulk + to the drain: it sits at the source
+    elif frequency == 0.0 or not w.flags.get("transfer"):
+        values["drain_peak"] = bulk  # through the primary's few ohms, the switch off
     else:
         values["drain_peak"] = w.nominal("drain_peak")
     out = values["output_voltage"]
@@ -240,7 +271,9 @@ def _control_signals(w: _Work) -> None:
         else:
             values["feedback_reference"] = ref * out / w.v_out
     lit = w.nominal("opto_led_voltage")
-    if out < 0.5 * w.v_out and loop == "regulating":
+    if out == 0.0:
+        values["opto_led_voltage"] = 0.0
+    elif out < 0.5 * w.v_out and loop == "regulating":
         values["opto_led_voltage"] = 0.0 if out == 0.0 else 0.3
     elif w.mode("optocoupler") == "open":
         values["opto_led_voltage"] = min(2.5, out)
@@ -264,7 +297,7 @@ def _symptoms(w: _Work, state: str) -> dict[str, dict[str, float]]:
     loaded_low = values["output_loaded"] < w.healthy.numeric["output_loaded"].low
     dried_out = w.mode("output_capacitor") == "dried"
     dried_bulk = w.mode("bulk_capacitor") == "dried"
-    hiccup = state == "hiccup"
+    hiccup = state == "hiccup" and bool(w.flags.get("audible"))  # heard only when energy is moved
     chance = {
         "dead": 0.9 if plug_dead else 0.25,
         "intermittent": 0.85 if w.mode("lead") == "open" else 0.3 if (dried_out or dried_bulk) else 0.05,
@@ -288,7 +321,7 @@ def _state(w: _Work) -> str:
     drive = w.flags.get("drive", "none")
     if drive in ("none", "latched", "stalled") or (drive == "running" and not w.flags["transfer"]):
         return "no_start"
-    if drive == "bursting":
+    if drive in ("bursting", "idle"):
         return "hiccup"
     out, loaded = w.values["output_voltage"], w.values["output_loaded"]
     band = w.healthy.numeric["output_voltage"]
@@ -328,6 +361,10 @@ def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[
     for step in stage_steps(family):
         step(w)
     _control_signals(w)
+    damage = _switch_destroyed(w)
+    if damage:
+        after = operate(family, ratings, healthy, {**modes, **dict(damage)})
+        return replace(after, damage=damage + after.damage)
     state = _state(w)
     outcomes = _symptoms(w, state)
     vcc = w.values.get("vcc_behaviour")
@@ -341,6 +378,20 @@ def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[
     return Operation(state, dict(w.values), outcomes, bool(w.flags["primary_short"]),
                      fuse_blows=bool(w.flags["primary_short"]) and not w.flags["path_open"],
                      hiccup=_hiccup(w) if state == "hiccup" else None)
+
+
+def _switch_destroyed(w: _Work) -> tuple[tuple[str, str], ...]:
+    """An open clamp leaves the leakage inductance's energy nowhere to go but the switch: each
+    turn-off drives the drain past its rating into avalanche and the switch fails short within the
+    first cycles [src: Power Integrations AN-19, the clamp limits VDS = Vbulk + VOR + spike below
+    BVDSS; practice: the switch keeps failing until the clamp is replaced]. A hazard, never a running
+    state: the unit is what it becomes once the switch has shorted."""
+    clamp_open = w.mode("clamp_diode") == "open" or w.mode("clamp_resistor") == "open"
+    switching = w.flags.get("transfer") and w.flags.get("drive") in ("running", "bursting")
+    if not clamp_open or not switching:
+        return ()
+    return tuple((part.id, "short") for part in w.family.parts_with_role("switch")
+                 if w.modes.get(part.id, "ok") != "short")
 
 
 def _hiccup(w: _Work) -> Hiccup | None:

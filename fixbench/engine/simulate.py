@@ -64,7 +64,7 @@ class SimulatedUnit:
         blown fuse stays blown for every later reading."""
         if not self._operation.fuse_blows:
             return self._operation
-        blown = dict(self.modes)
+        blown = {**self.modes, **dict(self._operation.damage)}  # a switch an open clamp killed
         for fuse in self.model.family.parts_with_role("fuse"):
             blown[fuse.id] = "open"
         operation = operate(self.model.family, self.model.ratings, self.model.healthy, blown)

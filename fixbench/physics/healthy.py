@@ -32,6 +32,27 @@ class HealthyUnit:
     figures: dict[str, Expectation]  # thresholds shown to the technician (start/stop Vcc...)
 
 
+def output_diode_drop(design: Design) -> float:
+    return SCHOTTKY_DROP if design.output_diode == "schottky" else SILICON_DROP
+
+
+def aux_to_secondary(design: Design, ratings: Ratings) -> float:
+    """Na/Ns of a controller family: chosen so the auxiliary winding holds Vcc at its design point
+    with the output in regulation [textbook flyback relations]."""
+    return flyback.aux_turns_for(design.vcc_target_v, ratings.output_v, output_diode_drop(design),
+                                 AUX_DIODE_DROP)
+
+
+def auxiliary_vcc(design: Design, ratings: Ratings, output_v: float) -> float:
+    """Vcc the auxiliary winding gives with the output at ``output_v``: it mirrors the output through
+    Na/Ns, Vaux = (Vo + VD) Na/Ns - VDa [textbook flyback relations]. At 0.4 x Vo it is about 0.4 of
+    the design point, under every controller's stop threshold."""
+    if output_v <= 0.0:
+        return 0.0
+    return max(flyback.auxiliary_voltage(output_v, output_diode_drop(design), aux_to_secondary(design, ratings),
+                                         AUX_DIODE_DROP), 0.0)
+
+
 def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
     peak = bulk_rail.rectified_peak(ratings.bench_mains)
     peak_low = bulk_rail.rectified_peak(ratings.bench_low)
@@ -70,15 +91,13 @@ def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
         # The auxiliary winding: Na/Ns chosen to hold Vcc at its design point with the output in
         # regulation; on a scope at the aux diode's anode it swings to (Vo + VD) Na/Ns during the
         # flyback interval and to -Vbulk Na/Np while the switch conducts [textbook flyback relations].
-        v_diode = AUX_DIODE_DROP
-        out_diode = SCHOTTKY_DROP if design.output_diode == "schottky" else SILICON_DROP
-        na_ns = flyback.aux_turns_for(target, ratings.output_v, out_diode, v_diode)
+        out_diode = output_diode_drop(design)
+        na_ns = aux_to_secondary(design, ratings)
         ns_np = 1.0 / flyback.primary_to_secondary_ratio(vor, ratings.output_v, out_diode)
         flyback_v = (ratings.output_v + out_diode) * na_ns
         figures["aux_flyback"] = Expectation(flyback_v, None, None, "V")
         figures["aux_forward"] = Expectation(-peak * na_ns * ns_np, None, None, "V")
-        figures["aux_rectified"] = Expectation(
-            flyback.auxiliary_voltage(ratings.output_v, out_diode, na_ns, v_diode), None, None, "V")
+        figures["aux_rectified"] = Expectation(auxiliary_vcc(design, ratings, ratings.output_v), None, None, "V")
     else:
         # Base of a self-oscillating switch: the meter averages the drive to a few tenths of a volt,
         # negative-going drive pulls it below zero [practice].
