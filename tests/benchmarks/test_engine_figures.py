@@ -48,3 +48,20 @@ def test_benchmark_is_repeatable_for_a_seed(result):
     again = run_benchmark(seed=1, units_per_family=10)
     for key in FRACTIONS + RATIOS + ("unsafe_proposals",):
         assert again[key] == result[key], key
+
+
+def test_benchmark_reports_every_family_on_its_own(result):
+    from fixbench.knowledge import load_knowledge
+
+    per_family = result["per_family"]
+    assert set(per_family) == set(load_knowledge().families)
+    for fid, figures in per_family.items():
+        for key in FRACTIONS:
+            assert 0.0 <= figures[key] <= 1.0, (fid, key)
+        assert figures["top3_noisy"] >= figures["top1_noisy"], fid
+        assert figures["unsafe_proposals"] == 0, fid
+    # the overall figures are the families' weighted by their units
+    assert sum(f["units"] for f in per_family.values()) == result["units"]
+    for key in FRACTIONS:
+        weighted = sum(f[key] * f["units"] for f in per_family.values()) / result["units"]
+        assert weighted == pytest.approx(result[key]), key
