@@ -45,6 +45,8 @@ BENCH_RATINGS = {
     "pwm_flyback": {"mains": "universal", "bench_mains": "230 V", "output": "19 V", "current": "3.4 A"},
     "primary_side": {"mains": "universal", "bench_mains": "120 V", "output": "5 V", "current": "2 A"},
     "self_oscillating": {"mains": "230 V", "output": "5 V", "current": "1 A"},
+    "integrated_opto": {"mains": "universal", "bench_mains": "230 V", "output": "12 V", "current": "1 A"},
+    "integrated_primary_side": {"mains": "universal", "bench_mains": "120 V", "output": "5 V", "current": "1 A"},
 }
 DEFAULT_RATINGS = {"mains": "230 V", "output": "5 V", "current": "1 A"}
 MAX_STEPS = 80

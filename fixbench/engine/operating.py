@@ -37,6 +37,9 @@ WEAK_LIMIT_SAG = 0.6  # loaded output with a current-limit set too low [practice
 HEALTHY_RIPPLE_FRACTION = 0.4  # healthy output ripple as a share of its limit [practice]
 BURST_FREQUENCY = 0.2  # a frequency meter on a bursting gate reads a fraction of the clock [practice]
 PRIMARY_SHORT_ROLES = ("bridge", "bulk_capacitor", "switch")
+# An integrated controller is the controller and its switch in one part: a shorted drain is a
+# shorted switch (the whole IC is gone), a dead one is a dead controller.
+INTEGRATED_READS_AS = {"switch": {"short": "short"}, "controller": {"dead": "dead", "short": "dead"}}
 STATES = ("no_power", "no_start", "hiccup", "running_regulated", "running_high", "running_low",
           "excessive_ripple")
 
@@ -72,7 +75,16 @@ class _Work:
             mode = self.modes.get(part.id, "ok")
             if mode != "ok":
                 return mode
+        if role in INTEGRATED_READS_AS:
+            for part in self.family.parts_with_role("integrated_switch"):
+                if self.modes.get(part.id, "ok") in INTEGRATED_READS_AS[role]:
+                    return INTEGRATED_READS_AS[role][self.modes[part.id]]
         return "ok"
+
+    @property
+    def integrated(self) -> bool:
+        """The switch sits inside the controller's package and starts it from its drain pin."""
+        return bool(self.family.parts_with_role("integrated_switch"))
 
     def nominal(self, signal: str) -> float:
         return self.healthy.numeric[signal].nominal
@@ -152,6 +164,11 @@ def _startup_and_drive(w: _Work) -> None:
         # Vcc joined to the auxiliary winding, a few ohms to primary ground: the start-up current
         # (a fraction of a milliamp) leaves millivolts on Vcc; the controller never starts.
         w.flags["drive"], w.values["vcc_voltage"] = "none", 0.0
+    elif w.mode("controller") == "dead" and w.integrated:
+        # The start-up current source off the drain charges the supply pin to the start threshold;
+        # the part never switches, so the pin sags to the stop threshold and the source starts again
+        # [src: ST VIPer22A datasheet, start-up and auto-restart; practice]: cycling, silently.
+        w.flags["drive"] = "idle"
     elif w.mode("controller") == "dead":
         w.flags["drive"], w.values["vcc_voltage"] = "latched", design.vcc_clamp_v
     elif w.mode("optocoupler") == "short":
@@ -182,6 +199,11 @@ def _switch_and_transfer(w: _Work) -> None:
         drive = "stalled"  # no collector current, no feedback-winding drive: nothing restarts it
     elif drive == "running" and (not transfer or output_shorted or no_secondary):
         drive = "bursting"  # nothing comes back on the aux winding: the controller restarts
+    elif drive == "running" and w.integrated and w.flags["loop"] == "open":
+        # Integrated parts stop on an open loop and restart after a delay: the unit ticks rather
+        # than running high [src: ST VIPer22A datasheet, overvoltage protection in hiccup mode;
+        # Power Integrations LinkSwitch datasheets, auto-restart on open loop].
+        drive = "bursting"
     elif drive == "running" and not self_oscillating:
         # The auxiliary winding mirrors the output the loop holds; under the stop threshold the
         # controller stops and restarts from the start-up resistor: a loop held low hiccups
@@ -390,8 +412,8 @@ def _switch_destroyed(w: _Work) -> tuple[tuple[str, str], ...]:
     switching = w.flags.get("transfer") and w.flags.get("drive") in ("running", "bursting")
     if not clamp_open or not switching:
         return ()
-    return tuple((part.id, "short") for part in w.family.parts_with_role("switch")
-                 if w.modes.get(part.id, "ok") != "short")
+    switches = w.family.parts_with_role("switch") + w.family.parts_with_role("integrated_switch")
+    return tuple((part.id, "short") for part in switches if w.modes.get(part.id, "ok") != "short")
 
 
 def _hiccup(w: _Work) -> Hiccup | None:

@@ -49,6 +49,7 @@ PART_ROLES: dict[str, tuple[str, ...]] = {
     "controller": ("drive",), "drive_resistor": ("drive",), "drive_capacitor": ("drive",),
     "cutoff_transistor": ("drive",),
     "switch": ("switch",), "gate_resistor": ("switch",), "sense_resistor": ("switch",),
+    "integrated_switch": ("switch",),  # controller and MOSFET in one package, started from the drain
     "clamp_diode": ("clamp",), "clamp_resistor": ("clamp",),
     "transformer": ("transformer",),
     "output_rectifier": ("output_rectifier",),
@@ -60,7 +61,7 @@ PART_ROLES: dict[str, tuple[str, ...]] = {
 PART_KINDS = (
     "fuse", "thermistor", "bridge", "electrolytic", "film_capacitor", "resistor", "fast_diode",
     "rectifier_diode", "schottky", "zener", "mosfet", "bjt", "controller", "transformer",
-    "optocoupler", "tl431", "lead",
+    "optocoupler", "tl431", "lead", "integrated_controller",
 )
 # The pins of each kind of part, as the cold netlist names them, and those a stage file must place
 # (a transformer has only the windings it is wound with; a controller's drive and FB pins may go
@@ -73,12 +74,16 @@ KIND_PINS: dict[str, tuple[str, ...]] = {
     "bridge": ("ac1", "ac2", "plus", "minus"),
     "mosfet": ("drain", "gate", "source"), "bjt": ("base", "collector", "emitter"),
     "controller": ("vcc", "gnd", "drive", "fb"),
+    # an integrated-switch controller: drain pin (the MOSFET's, with the start-up current source),
+    # source (the IC's ground), supply or bypass pin, feedback pin
+    "integrated_controller": ("drain", "source", "vcc", "fb"),
     "optocoupler": ("anode", "cathode", "collector", "emitter"),
     "tl431": ("cathode", "anode", "ref"),
     "transformer": ("primary_a", "primary_b", "aux_a", "aux_b", "secondary_a", "secondary_b"),
 }
 KIND_REQUIRED_PINS: dict[str, tuple[str, ...]] = {
     "transformer": ("primary_a", "primary_b"), "controller": ("vcc", "gnd"),
+    "integrated_controller": ("drain", "source", "vcc"),
 }
 # How the readings of a cold check's several probe pairs make the one number entered.
 COMBINES = ("one", "odd_one_out", "lowest")
@@ -274,6 +279,7 @@ KIND_MODES: dict[str, tuple[str, ...]] = {
     "mosfet": ("short", "open"),
     "bjt": ("short", "open"),
     "controller": ("dead", "short"),
+    "integrated_controller": ("short", "dead"),  # short: drain to source, the whole IC destroyed
     "transformer": ("open",),
     "optocoupler": ("open", "short"),
     "tl431": ("open", "short"),

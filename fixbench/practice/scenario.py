@@ -27,6 +27,10 @@ PRACTICE_UNITS: dict[str, tuple[dict[str, str], ...]] = {
                      {"mains": "230 V", "output": "5 V", "current": "1 A"}),
     "self_oscillating": ({"mains": "230 V", "output": "5 V", "current": "1 A"},
                          {"mains": "230 V", "output": "12 V", "current": "0.5 A"}),
+    "integrated_opto": ({"mains": "universal", "bench_mains": "230 V", "output": "12 V", "current": "1 A"},
+                        {"mains": "230 V", "output": "5 V", "current": "2 A"}),
+    "integrated_primary_side": ({"mains": "universal", "bench_mains": "230 V", "output": "5 V", "current": "1 A"},
+                                {"mains": "230 V", "output": "5 V", "current": "0.6 A"}),
 }
 SURE_COLLATERAL = 0.8  # collateral this likely is part of the fault's textbook picture
 FALLBACK_UNIT = {"mains": "230 V", "output": "5 V", "current": "1 A"}

@@ -17,7 +17,8 @@ OUTCOME_WORDS = {
 STATUS_WORDS = {"intake": "At intake", "diagnosing": "Diagnosing", "repairing": "Repairing",
                 "verifying": "Verifying", "closed": "Closed"}
 FAMILY_SHORT = {"pwm_flyback": "PWM flyback", "self_oscillating": "Self-oscillating",
-                "primary_side": "Primary-side regulated"}
+                "primary_side": "Primary-side regulated", "integrated_opto": "Integrated switch, opto",
+                "integrated_primary_side": "Integrated switch, primary-side"}
 
 
 def family_name(family_id: str) -> str:

@@ -48,6 +48,8 @@ def test_kinds_come_from_the_stage_files():
         "pwm_flyback": ("controller", "opto_tl431", "schottky"),
         "primary_side": ("controller", "primary_side", "schottky"),
         "self_oscillating": ("self_oscillating", "opto_zener", "schottky"),
+        "integrated_opto": ("controller", "opto_tl431", "schottky"),
+        "integrated_primary_side": ("controller", "primary_side", "schottky"),
     }
     assert knowledge.family("self_oscillating").design.start_v is None
 

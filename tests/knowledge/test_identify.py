@@ -20,16 +20,25 @@ def _identify(knowledge, **answers):
     return identify(list(knowledge.families.values()), knowledge.questions, answers)
 
 
-def test_eight_pin_chip_without_optocoupler_or_tl431_is_the_primary_side_family(knowledge):
-    """Issue 13: on main, "8-pin chip, no optocoupler, no TL431" got "No single family fits": the
-    primary-side family said it had no 8-pin chip. An 8-pin chip is a controller chip; primary-side
-    controllers come in 6- and 8-pin packages [practice]."""
+def test_eight_pin_chip_without_optocoupler_or_tl431_asks_for_the_switch(knowledge):
+    """Issue 13: on main, "8-pin chip, no optocoupler, no TL431" got "No single family fits". An
+    8-pin chip is a controller chip; primary-side controllers come in 6- and 8-pin packages, with the
+    MOSFET beside them or inside [practice]: both families fit, and the question that splits them is
+    whether a separate power transistor sits beside the transformer."""
     found = _identify(knowledge, controller_chip="yes", optocoupler="no", tl431="no")
-    assert found.family is not None and found.family.id == "primary_side"
-    assert found.describe().startswith("\u2192 That board fits: Primary-side-regulated controller")
+    assert {f.id for f in found.fitting} == {"primary_side", "integrated_primary_side"}
+    assert found.deciding is not None and found.deciding.id == "separate_switch"
+    assert "Answer this to tell them apart: A separate power transistor" in found.describe()
 
 
-@pytest.mark.parametrize("family_id", ("pwm_flyback", "primary_side", "self_oscillating"))
+def test_a_chip_that_drives_the_transformer_itself_is_the_integrated_family(knowledge):
+    found = _identify(knowledge, controller_chip="yes", separate_switch="no", optocoupler="no", tl431="no")
+    assert found.family is not None and found.family.id == "integrated_primary_side"
+    found = _identify(knowledge, controller_chip="yes", separate_switch="no", optocoupler="yes", tl431="yes")
+    assert found.family is not None and found.family.id == "integrated_opto"
+
+
+@pytest.mark.parametrize("family_id", sorted(load_knowledge().families))
 def test_every_family_is_singled_out_by_at_most_three_answers(knowledge, family_id):
     families = list(knowledge.families.values())
     family = knowledge.family(family_id)
@@ -40,20 +49,23 @@ def test_every_family_is_singled_out_by_at_most_three_answers(knowledge, family_
 
 
 def test_no_family_fits_names_the_closest_and_why(knowledge):
-    # A chip that drives the transformer itself (integrated switch): no such family yet.
-    found = _identify(knowledge, controller_chip="yes", separate_switch="no", optocoupler="no", tl431="no")
+    # An integrated switch with an optocoupler but a Zener, not a TL431, on the output side.
+    found = _identify(knowledge, controller_chip="yes", separate_switch="no", optocoupler="yes", tl431="no")
     assert found.family is None and not found.fitting
-    assert [family.id for family, _ in found.closest] == ["primary_side"]
+    assert [family.id for family, _ in found.closest] == ["integrated_opto", "integrated_primary_side"]
     text = found.describe()
-    assert text.startswith("No single family fits those answers. Closest: Primary-side-regulated")
-    assert "its boards have a separate power transistor; you saw no separate power transistor" in text
+    assert text.startswith("No single family fits those answers. Closest: Integrated controller and MOSFET")
+    assert "with optocoupler and TL431: its boards have a TL431 near the output; you saw no TL431" in text
+    assert ("no optocoupler: its boards have no optocoupler; you saw an optocoupler across the isolation "
+            "slot") in text
 
 
 def test_several_fitting_families_are_named_with_the_question_that_splits_them(knowledge):
     found = _identify(knowledge, controller_chip="yes")
-    assert {f.id for f in found.fitting} == {"pwm_flyback", "primary_side"}
-    assert found.deciding is not None and found.deciding.id == "optocoupler"
-    assert "2 families fit" in found.describe()
+    assert {f.id for f in found.fitting} == {"pwm_flyback", "primary_side", "integrated_opto",
+                                             "integrated_primary_side"}
+    assert found.deciding is not None and found.deciding.id == "separate_switch"
+    assert "4 families fit" in found.describe()
 
 
 def test_no_answer_says_nothing(knowledge):

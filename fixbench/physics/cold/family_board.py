@@ -30,6 +30,7 @@ VALUE_SPREAD: dict[str, tuple[float, float]] = {
     "transformer": (0.1, 5.0),
     # A controller's supply pin to ground, unpowered: known only to within a few times [memory].
     "controller": (0.3, 3.0),
+    "integrated_controller": (0.3, 3.0),
 }
 # Kinds whose value in the knowledge files is not what the cold network needs (a fuse's current
 # rating): the cold model uses its own figure for them.
@@ -39,7 +40,7 @@ VALUE_NOT_COLD = ("fuse", "lead")
 def board_part(part: Part, ratings: Ratings, family: Family) -> BoardPart:
     """One part of the family as the cold network takes it."""
     value = None if part.kind in VALUE_NOT_COLD else value_of(part, ratings, family.design)
-    if part.kind == "controller":
+    if part.kind in ("controller", "integrated_controller"):
         value = CONTROLLER_VCC_OHM
     extra: tuple[tuple[str, float], ...] = ()
     if part.kind == "electrolytic":

@@ -43,7 +43,7 @@ MODES: dict[str, tuple[str, ...]] = {
     "rectifier_diode": ("open", "short"), "fast_diode": ("open", "short"), "schottky": ("open", "short"),
     "zener": ("open", "short"), "bridge": ("open", "short"), "mosfet": ("open", "short"),
     "bjt": ("open", "short"), "controller": ("dead", "short"), "optocoupler": ("open", "short"),
-    "tl431": ("open", "short"), "transformer": ("open",),
+    "tl431": ("open", "short"), "transformer": ("open",), "integrated_controller": ("short", "dead"),
 }
 
 DIODE_JUNCTIONS = {"rectifier_diode": jn.SILICON_RECTIFIER, "fast_diode": jn.FAST_RECOVERY,
@@ -53,7 +53,7 @@ RESISTIVE = ("fuse", "thermistor", "resistor", "lead")
 JUNCTION_KINDS: dict[str, jn.JunctionKind] = {
     **DIODE_JUNCTIONS, "zener": jn.ZENER_FORWARD, "bridge": jn.SILICON_RECTIFIER, "mosfet": jn.BODY_DIODE,
     "bjt": jn.TRANSISTOR_JUNCTION, "controller": jn.IC_SUBSTRATE, "optocoupler": jn.INFRARED_LED,
-    "tl431": jn.SHUNT_REFERENCE_SUBSTRATE,
+    "tl431": jn.SHUNT_REFERENCE_SUBSTRATE, "integrated_controller": jn.BODY_DIODE,
 }
 
 
@@ -175,6 +175,23 @@ def _transformer(part: BoardPart) -> tuple[Element, ...]:
     return tuple(elements)
 
 
+def _integrated_controller(part: BoardPart) -> tuple[Element, ...]:
+    """A controller with its MOSFET in the package, unpowered: the MOSFET's body diode from source
+    to drain, and the supply pin's substrate junction and bias to the source pin, as a discrete
+    controller's. A shorted switch is drain to source, and the surge that shorted it usually takes
+    the supply pin's input with it; a dead one reads as a good one cold [practice]."""
+    drain, source, vcc = part.node("drain"), part.node("source"), part.node("vcc")
+    bias = part.value if part.value is not None else CONTROLLER_VCC_OHM
+    supply = (_junction(part, f"{part.id}.substrate", source, vcc, jn.IC_SUBSTRATE),
+              Resistor(f"{part.id}.bias", vcc, source, bias))
+    if part.mode == "short":
+        return (Resistor(f"{part.id}.short", drain, source, SHORT_OHM),
+                Resistor(f"{part.id}.supply_short", vcc, source, SHORTED_CONTROLLER_OHM))
+    if part.mode not in ("ok", "dead"):
+        raise _mode_error(part)
+    return (_junction(part, f"{part.id}.body", source, drain, jn.BODY_DIODE),) + supply
+
+
 @lru_cache(maxsize=16384)
 def cold_elements(part: BoardPart) -> tuple[Element, ...]:
     """The elements ``part`` shows a meter in its state."""
@@ -209,6 +226,8 @@ def cold_elements(part: BoardPart) -> tuple[Element, ...]:
         if part.mode == "short":
             return (Resistor(f"{part.id}.short", node("vcc"), node("gnd"), SHORTED_CONTROLLER_OHM),)
         return _two_terminal(part, "vcc", "gnd", healthy)
+    if kind == "integrated_controller":
+        return _integrated_controller(part)
     if kind == "optocoupler":
         return _two_terminal(part, "anode", "cathode",
                              (_junction(part, f"{part.id}.led", node("anode"), node("cathode"), jn.INFRARED_LED),))

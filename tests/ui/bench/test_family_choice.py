@@ -21,20 +21,26 @@ def _open_intake(qtbot, bench):
     return bench.panels["intake"]
 
 
-def test_eight_pin_chip_without_optocoupler_or_tl431_chooses_primary_side(qtbot, bench, tmp_path):
+def test_eight_pin_chip_without_optocoupler_or_tl431_asks_for_the_switch_then_chooses(qtbot, bench, tmp_path):
     intake = _open_intake(qtbot, bench)
     _answer(qtbot, intake, controller_chip="yes", optocoupler="no", tl431="no")
-    assert intake.family.family_id() == "primary_side"
-    assert intake.family.suggestion.text().startswith("\u2192 That board fits: Primary-side-regulated")
+    text = intake.family.suggestion.text()
+    assert text.startswith("2 families fit those answers")
+    assert "Answer this to tell them apart: A separate power transistor" in text
+    _answer(qtbot, intake, separate_switch="no")
+    assert intake.family.family_id() == "integrated_primary_side"
+    assert intake.family.suggestion.text().startswith("\u2192 That board fits: Integrated controller and MOSFET")
     shoot(bench.window(), tmp_path, "intake_fits")
 
 
-def test_a_board_no_family_fits_names_the_closest_and_why(qtbot, bench):
+def test_a_board_no_family_fits_names_the_closest_and_why(qtbot, bench, tmp_path):
     intake = _open_intake(qtbot, bench)
-    _answer(qtbot, intake, controller_chip="yes", separate_switch="no", optocoupler="no")
+    _answer(qtbot, intake, controller_chip="yes", separate_switch="no", optocoupler="yes", tl431="no")
     text = intake.family.suggestion.text()
-    assert text.startswith("No single family fits those answers. Closest: Primary-side-regulated")
-    assert "you saw no separate power transistor" in text
+    assert text.startswith("No single family fits those answers. Closest: Integrated controller and MOSFET")
+    assert "its boards have a TL431 near the output; you saw no TL431" in text
+    shoot(bench.window(), tmp_path, "intake_no_fit")
     # "not sure" takes an answer back.
-    _answer(qtbot, intake, separate_switch=None)
-    assert intake.family.suggestion.text().startswith("\u2192 That board fits: Primary-side-regulated")
+    _answer(qtbot, intake, tl431=None)
+    assert intake.family.family_id() == "integrated_opto"
+    assert intake.family.suggestion.text().startswith("\u2192 That board fits: Integrated controller and MOSFET")
