@@ -1,7 +1,7 @@
 """The one parser and formatter for readings and ratings typed with units.
 
 A technician types what the meter shows: "325 V", "4k7", "0R47", "0.45 ohm", "100 uF", "68 kHz",
-"OL". Everything numeric in fixbench goes through :func:`parse_quantity`, and everything shown to a
+"OL", and what parts are marked with: "2M2", "5V1". Everything numeric in fixbench goes through :func:`parse_quantity`, and everything shown to a
 person goes through :func:`format_quantity`, so units and prefixes look the same everywhere.
 
 Values are held in SI base units (V, A, Hz, F, ohm, s, W). Only the everyday engineering prefixes
@@ -38,8 +38,10 @@ OVER_RANGE_WORDS = {"ol", "o.l", "o.l.", "open", "inf", "infinite", "overload", 
 _PREFIXES_IN = "TGMkmunp"
 _EXPONENT = {"T": 12, "G": 9, "M": 6, "k": 3, "K": 3, "m": -3, "u": -6, "n": -9, "p": -12}
 _SCALE = {letter: 10.0**exp for letter, exp in _EXPONENT.items()}
-# Resistor/capacitor code where the prefix letter stands for the decimal point: 4k7, 0R47, 2M2, 4n7.
-_RKM = re.compile(r"^(\d+)([RrKkMmunpG])(\d+)$")
+# Resistor/capacitor code where the prefix letter stands for the decimal point: 4k7, 0R47, 2M2, 4n7
+# [src: IEC 60062, letter and digit code]; Zener voltages are printed the same way, 5V1, 4V7.
+_RKM = re.compile(r"^(\d+)([RrKkMmunpGV])(\d+)$")
+_RKM_UNIT = {"R": "ohm", "r": "ohm", "V": "V"}
 _SPLIT = re.compile(r"^([-+]?[0-9.eE+-]*[0-9.](?:[eE][-+]?\d+)?)\s*([A-Za-z\u00b5\u03bc\u03a9\u2126%-]*)$")
 _COMMA_DECIMAL = re.compile(r"^[-+]?\d+,\d+")
 
@@ -99,9 +101,9 @@ def parse_quantity(text: str, expect_unit: str | None = None) -> Measured:
     rkm = _RKM.match(text.replace(" ", ""))
     if rkm:
         whole, letter, frac = rkm.groups()
-        exponent = 0 if letter in "Rr" else _EXPONENT[letter]
+        exponent = 0 if letter in _RKM_UNIT else _EXPONENT[letter]
         value = float(f"{whole}.{frac}e{exponent}")
-        unit: str | None = "ohm" if letter in "Rr" else None
+        unit: str | None = _RKM_UNIT.get(letter)
         return _checked(Measured(value, unit or expect_unit), expect_unit, raw, typed_unit=unit)
     match = _SPLIT.match(text)
     if not match:

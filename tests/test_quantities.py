@@ -37,6 +37,9 @@ EVERYDAY_PREFIXES = "TGMkmunp"
         ("15 W", None, 15.0, "W"),
         ("-5 V", None, -5.0, "V"),
         ("230 VAC", "V", 230.0, "V"),
+        # Zener voltages printed letter-for-point [src: IEC 60062, letter and digit code]
+        ("5V1", "V", 5.1, "V"),
+        ("4V9", None, 4.9, "V"),
     ],
 )
 def test_parses_what_a_technician_types(text, expect_unit, value, unit):

@@ -2,9 +2,13 @@
 
 from __future__ import annotations
 
+from pathlib import Path
+
 from fixbench.commands.usage import UsageError, near_matches
 from fixbench.engine.fault_model import cached_fault_model
 from fixbench.knowledge import Family, load_knowledge
+from fixbench.knowledge.board import BoardError, BoardProfile, on_board, profile_from_data, profile_from_toml
+from fixbench.physics.part_values import ratings_on_board
 from fixbench.physics.ratings import Ratings, parse_ratings
 from fixbench.quantities import ReadingError
 
@@ -20,6 +24,43 @@ def add_unit_arguments(parser, family_required: bool = True) -> None:
     parser.add_argument("--current", default="1 A", help="rated output current, e.g. 2A")
     parser.add_argument("--bulk", help="bulk capacitance if read off the capacitor, e.g. 22uF")
     parser.add_argument("--switching", help="switching frequency if known, e.g. 65kHz")
+    add_board_argument(parser)
+
+
+def add_board_argument(parser) -> None:
+    parser.add_argument("--board", metavar="FILE.toml",
+                        help="a board profile (the file the window exports): the board's own designators "
+                             "and marked values, by the family's part ids, e.g. [parts.C1] value = \"10 uF\"")
+
+
+MAX_BOARD_BYTES = 1_000_000  # a profile is a few kilobytes
+
+
+def board_file(path_text: str | None) -> BoardProfile | None:
+    """The board profile in that file, or a one-line error saying what is wrong with it."""
+    if path_text is None:
+        return None
+    try:
+        with Path(path_text).open("rb") as handle:
+            raw = handle.read(MAX_BOARD_BYTES + 1)
+    except OSError as err:
+        raise UsageError(f"cannot read {path_text}: {err.strerror or err}") from None
+    if len(raw) > MAX_BOARD_BYTES:
+        raise UsageError(f"{path_text}: larger than 1 MB; a board profile is a few kilobytes")
+    try:
+        return profile_from_toml(raw.decode("utf-8-sig"), path_text)
+    except UnicodeDecodeError:
+        raise UsageError(f"{path_text}: not text in UTF-8; save the file as UTF-8") from None
+    except BoardError as err:
+        raise UsageError(str(err)) from None
+
+
+def board_data(data: object, source: str) -> BoardProfile:
+    """A board profile carried in a case file ("board": the profile file's tables as JSON)."""
+    try:
+        return profile_from_data(data, source)
+    except BoardError as err:
+        raise UsageError(str(err)) from None
 
 
 def ratings_text(args) -> dict[str, str]:
@@ -48,15 +89,19 @@ def family_named(family_id: object) -> Family:
     return families[family_id]
 
 
-def family_and_ratings(family_id: object, ratings: object) -> tuple[Family, Ratings]:
-    """The family and its parsed ratings, refused in one line unless the family's circuit can have
-    them (its healthy readings are built here once, and cached for the command that follows)."""
+def family_and_ratings(family_id: object, ratings: object,
+                       board: BoardProfile | None = None) -> tuple[Family, Ratings]:
+    """The family (as the board has it, where a profile is given) and its parsed ratings, refused in
+    one line unless the family's circuit can have them (its healthy readings are built here once,
+    and cached for the command that follows)."""
     family = family_named(family_id)
     if not isinstance(ratings, dict) or not all(isinstance(v, str) for v in ratings.values()):
         raise UsageError("ratings must be an object of text values, e.g. {\"mains\": \"230 V\"}")
     try:
-        parsed = parse_ratings(ratings)
+        if board is not None:
+            family = on_board(family, board)
+        parsed = ratings_on_board(family, parse_ratings(ratings))
         cached_fault_model(family, parsed)
-    except ReadingError as err:
+    except (ReadingError, BoardError) as err:
         raise UsageError(str(err)) from None
     return family, parsed

@@ -1,5 +1,6 @@
 """`fixbench diagnose CASE.json`: replay a case's readings and say what is likely wrong and what to
-measure next. A case file: {"family": ID, "ratings": {...}, "readings": [{"check": ID, "value": TEXT}]}.
+measure next. A case file: {"family": ID, "ratings": {...}, "readings": [{"check": ID, "value": TEXT}]}, and
+optionally "board": a board profile's tables (model, family, parts) as JSON.
 """
 
 from __future__ import annotations
@@ -10,7 +11,7 @@ from pathlib import Path
 
 from fixbench.commands.usage import UsageError, near_matches
 from fixbench.commands._output import print_json
-from fixbench.commands._unit import family_and_ratings
+from fixbench.commands._unit import add_board_argument, board_data, board_file, family_and_ratings
 from fixbench.engine import start_diagnosis
 from fixbench.engine.replay import replay_readings
 from fixbench.engine.report import state_as_dict, state_text
@@ -27,6 +28,7 @@ MAX_FILE_BYTES = 8_000_000
 def add_arguments(parser) -> None:
     parser.add_argument("case", help="case file (JSON), or - for standard input")
     parser.add_argument("--json", action="store_true", help="print suspects, next check and conclusion as JSON")
+    add_board_argument(parser)
 
 
 def load_case(path_text: str) -> dict:
@@ -72,10 +74,13 @@ def _case_bytes(path_text: str) -> bytes:
     return raw
 
 
-def replay(case: dict, source: str = "case"):
-    """The case file's readings taken in order; the first one this build cannot take is an error
+def replay(case: dict, source: str = "case", board=None):
+    """The case file's readings taken in order, on the board profile given (or the case file's own
+    "board", as `simulate --board` writes it); the first reading this build cannot take is an error
     naming its place in the file."""
-    family, ratings = family_and_ratings(case["family"], case["ratings"])
+    if board is None and "board" in case:
+        board = board_data(case["board"], f"{source}: board")
+    family, ratings = family_and_ratings(case["family"], case["ratings"], board)
     readings = case.get("readings", [])
     for i, item in enumerate(readings):
         if not isinstance(item, dict) or "check" not in item or "value" not in item:
@@ -96,7 +101,7 @@ def replay(case: dict, source: str = "case"):
 
 def run(args) -> int:
     case = load_case(args.case)
-    state = replay(case, args.case)
+    state = replay(case, args.case, board_file(args.board))
     if args.json:
         print_json(state_as_dict(state))
         return 0

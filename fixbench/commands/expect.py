@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from fixbench.commands._output import print_json, print_table
-from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
+from fixbench.commands._unit import add_unit_arguments, board_file, family_and_ratings, ratings_text
 from fixbench.engine.fault_model import cached_fault_model
 from fixbench.physics.part_values import VALUE_UNITS, value_of
 from fixbench.quantities import format_band, format_quantity
@@ -48,7 +48,9 @@ def healthy_rows(family, ratings) -> list[dict]:
 
 def cold_rows(family, ratings) -> list[dict]:
     """The cold checks of parts: in-circuit nominal and band (SI), and the value the targeted part
-    is marked with (SI; None where its kind has no value that the check reads, e.g. a diode)."""
+    is marked with (SI; None where its kind has no value that the check reads, e.g. a diode): the
+    board profile's marking where it gives one (``marked``), the family's typical value otherwise;
+    ``designator`` is the board's where the profile names the part."""
     model = cached_fault_model(family, ratings)
     rows = []
     for cm in model.checks:
@@ -59,13 +61,14 @@ def cold_rows(family, ratings) -> list[dict]:
         rows.append({"point": "/".join(check.points), "check": check.id, "title": check.title,
                      "instrument": check.instrument, "power": check.power, "unit": check.unit,
                      "nominal": cm.healthy.nominal, "low": cm.healthy.low, "high": cm.healthy.high,
-                     "part": part.id, "part_value": value_of(part, ratings, family.design),
+                     "part": part.id, "designator": part.label, "marked": part.marked,
+                     "part_value": value_of(part, ratings, family.design),
                      "lift": ".".join(check.lift) if check.lift else None})
     return rows
 
 
 def run(args) -> int:
-    family, ratings = family_and_ratings(args.family, ratings_text(args))
+    family, ratings = family_and_ratings(args.family, ratings_text(args), board_file(args.board))
     rows = cold_rows(family, ratings) if args.cold else healthy_rows(family, ratings)
     if args.json:
         print_json(rows)
@@ -73,9 +76,10 @@ def run(args) -> int:
     print(f"{family.title}: {format_quantity(ratings.output_v, 'V')} {format_quantity(ratings.output_a, 'A')}, "
           f"mains on the bench {format_quantity(ratings.bench_mains, 'V')} {format_quantity(ratings.mains_hz, 'Hz')}")
     if args.cold:
-        print("In circuit, on a 4000-count handheld meter; a lifted leg is named where a check lifts one.")
-        print_table(["check", "part", "marked", "lift", "healthy", "band"],
-                    [[r["title"], r["part"], _marked(family, r), r["lift"] or "",
+        print("In circuit, on a 4000-count handheld meter; a lifted leg is named where a check lifts one; "
+              "a value is the family's typical one unless the board profile marks it.")
+        print_table(["check", "part", "value", "lift", "healthy", "band"],
+                    [[r["title"], r["designator"], _marked(family, r), r["lift"] or "",
                       format_quantity(r["nominal"], r["unit"], 4) if r["nominal"] is not None else "OL",
                       format_band(r["low"], r["high"], r["unit"])] for r in rows])
         return 0
@@ -89,4 +93,5 @@ def run(args) -> int:
 def _marked(family, row: dict) -> str:
     if row["part_value"] is None:
         return ""
-    return format_quantity(row["part_value"], VALUE_UNITS[family.part(row["part"]).kind])
+    value = format_quantity(row["part_value"], VALUE_UNITS[family.part(row["part"]).kind])
+    return value if row["marked"] else f"{value} (typical)"

@@ -5,7 +5,9 @@ from __future__ import annotations
 
 from fixbench.commands.usage import UsageError, near_matches
 from fixbench.commands._output import print_json
-from fixbench.commands._unit import add_unit_arguments, family_and_ratings, ratings_text
+from fixbench.commands._unit import add_unit_arguments, board_file, family_and_ratings, ratings_text
+from fixbench.knowledge.board import profile_as_data
+from fixbench.physics.ratings import parse_ratings
 from fixbench.engine import simulate_readings
 from fixbench.engine.hypotheses import NO_FAULT
 
@@ -23,7 +25,8 @@ def add_arguments(parser) -> None:
 
 def run(args) -> int:
     text = ratings_text(args)
-    family, ratings = family_and_ratings(args.family, text)
+    board = board_file(args.board)
+    family, ratings = family_and_ratings(args.family, text, board)
     if args.fault != NO_FAULT and args.fault not in {f.id for f in family.faults}:
         known = [f.id for f in family.faults]
         raise UsageError(f"unknown fault '{args.fault}' for family '{family.id}'"
@@ -33,11 +36,14 @@ def run(args) -> int:
         raise UsageError("--wrong-rate must be between 0 and 1")
     readings = simulate_readings(family, ratings, args.fault, seed=args.seed, noise=not args.exact,
                                  wrong_rate=args.wrong_rate)
-    case = {"family": family.id, "ratings": ratings.as_text(),
+    case = {"family": family.id, "ratings": parse_ratings(text).as_text(),
             "readings": [{"check": c, "value": v} for c, v in readings.items()]}
+    if board is not None:
+        case["board"] = profile_as_data(board)  # diagnose reads the readings on the same board
     if args.json:
         print_json(case)
     else:
         for item in case["readings"]:
             print(f"{item['check']:28s} {item['value']}")
     return 0
+

@@ -81,6 +81,12 @@ KIND_PINS: dict[str, tuple[str, ...]] = {
     "tl431": ("cathode", "anode", "ref"),
     "transformer": ("primary_a", "primary_b", "aux_a", "aux_b", "secondary_a", "secondary_b"),
 }
+# The unit a kind's value is written in (a fuse's value is its current rating, a transformer's its
+# primary winding's resistance); other kinds are bought by type and have no value.
+KIND_VALUE_UNITS: dict[str, str] = {
+    "fuse": "A", "thermistor": "ohm", "electrolytic": "F", "film_capacitor": "F", "resistor": "ohm",
+    "transformer": "ohm", "zener": "V",
+}
 KIND_REQUIRED_PINS: dict[str, tuple[str, ...]] = {
     "transformer": ("primary_a", "primary_b"), "controller": ("vcc", "gnd"),
     "integrated_controller": ("drain", "source", "vcc"),
@@ -117,9 +123,30 @@ class Part:
     rated: str | None = None  # voltage rating of a capacitor, same forms as value
     cost: float = 0.0
     pins: tuple[tuple[str, str], ...] = ()  # (pin, node) in the cold netlist, e.g. ("a", "bulk_plus")
+    # What a board profile says of this part on the board in hand (knowledge.board): its own
+    # designator(s), the number of resistors of a chain, the marking as typed and the package.
+    # value and rated then hold the marking's figures; empty marking: the family's typical part.
+    designator: str = ""
+    count: int = 1
+    marking: str = ""
+    package: str = ""
+    id_on_board_elsewhere: bool = False  # the board gives this part's family designator to another part
 
     def node(self, pin: str) -> str:
         return dict(self.pins)[pin]
+
+    @property
+    def label(self) -> str:
+        """The part's name as the technician finds it on the board: the board's designator where a
+        profile gives one, the family's otherwise, said to be the typical part's where the board
+        uses that designator for another part."""
+        if self.designator:
+            return self.designator
+        return f"{self.id} (typical)" if self.id_on_board_elsewhere else self.id
+
+    @property
+    def marked(self) -> bool:
+        return bool(self.marking)
 
 
 @dataclass(frozen=True)

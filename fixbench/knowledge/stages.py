@@ -18,10 +18,7 @@ from fixbench.knowledge import model
 from fixbench.knowledge.design import STAGE_FACTS
 from fixbench.knowledge.reader import Reader, check_value_text, read_toml
 
-PART_VALUE_UNITS = {
-    "fuse": "A", "thermistor": "ohm", "electrolytic": "F", "film_capacitor": "F", "resistor": "ohm",
-    "transformer": "ohm", "zener": "V",
-}
+PART_VALUE_UNITS = model.KIND_VALUE_UNITS
 COLD_INSTRUMENTS = ("ohmmeter", "diode_test", "capacitance", "esr")
 
 

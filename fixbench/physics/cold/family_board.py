@@ -45,8 +45,8 @@ def board_part(part: Part, ratings: Ratings, family: Family) -> BoardPart:
     extra: tuple[tuple[str, float], ...] = ()
     if part.kind == "electrolytic":
         extra = (("esr_ohm", esr_new_max(value, rated_voltage(part, ratings, family.design))),)
-    return BoardPart(part.id, part.kind, part.pins, value, spread=VALUE_SPREAD.get(part.kind, (1.0, 1.0)),
-                     extra=extra)
+    return BoardPart(part.id, part.kind, part.pins, value, count=part.count,
+                     spread=VALUE_SPREAD.get(part.kind, (1.0, 1.0)), extra=extra)
 
 
 @lru_cache(maxsize=64)
