@@ -151,6 +151,12 @@ def format_quantity(value: float | None, unit: str, digits: int = 3) -> str:
         return "OL"
     if unit == "":
         return f"{value:.{digits}g}"
+    if unit == "F" and 1e-3 <= abs(value) < 1.0:
+        # Capacitors are marked and sold in microfarads, 1000 uF and up too, never millifarads [practice].
+        micro = value * 1e6
+        decimals = max(digits - len(str(int(abs(micro)))), 0)
+        text = f"{micro:.{decimals}f}"
+        return (text.rstrip("0").rstrip(".") if "." in text else text) + " uF"
     q = Quantity(value, unit)
     text = q.render(prec=max(digits - 1, 0), strip_zeros=True, form="si")
     text = text.replace("\u00b5", "u")

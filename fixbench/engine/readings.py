@@ -9,6 +9,7 @@ near-dead short.
 from __future__ import annotations
 
 import math
+import re
 from dataclasses import dataclass
 
 from fixbench.engine.fault_model import CheckModel
@@ -25,6 +26,12 @@ SYNONYMS = {
     "zero": ("zero", "0 v", "nothing"),
 }
 BEEP_WORDS = ("beeps", "beep", "continuity", "short", "shorted")
+# A bare number is read with the prefix the step shows its expected value in ("5.46" where 4.7 uF
+# is expected is 5.46 uF): capacitance always (nobody types farads), ohms and hertz from kilo up, as
+# meters show them on those ranges [practice]. Volts and small ohms are read as typed: a meter shows
+# a diode drop as 0.55 V and a fuse as 0.1 ohm. The lowest exponent each unit is scaled from:
+SHOWN_PREFIX_FROM = {"F": -15, "ohm": 3, "Hz": 3}
+_BARE_NUMBER = re.compile(r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?")
 BEEP_VALUE = {"ohmmeter": 0.5, "esr": 0.01, "diode_test": 0.0}
 
 
@@ -36,6 +43,7 @@ class Reading:
     unit: str | None
     outcome: str  # the class the reading falls in
     in_band: bool
+    read_as: str = ""  # the prefixed unit a bare number was read in ("uF"), for the echo
 
     def shown(self) -> str:
         return format_quantity(self.value, self.unit) if self.value is not None else self.outcome
@@ -51,13 +59,32 @@ def read(check_model: CheckModel, text: str) -> Reading:
             if word == outcome or word in SYNONYMS.get(outcome, ()):
                 return Reading(check.id, cleaned, None, None, outcome, outcome == check_model.healthy_outcome)
         raise ReadingError(f"'{cleaned}' is not an answer here: pick one of {', '.join(classes.names)}")
+    read_as = ""
     if cleaned.lower() in BEEP_WORDS and check.instrument in BEEP_VALUE:
         value = BEEP_VALUE[check.instrument]
     else:
         value = parse_quantity(cleaned, check.unit).value
+        scale, read_as = shown_scale(check_model) if _BARE_NUMBER.fullmatch(cleaned) else (1.0, "")
+        value *= scale
     if value < 0 and check.instrument in ("ohmmeter", "esr", "capacitance", "frequency", "ripple"):
         raise ReadingError(f"'{cleaned}': a {check.instrument.replace('_', ' ')} reading cannot be negative")
     if not math.isinf(value) and check.unit == "V" and abs(value) > 2000:
         raise ReadingError(f"'{cleaned}': more than 2 kV cannot be on this unit; check the range and units")
     outcome = classes.classify(value)
-    return Reading(check.id, cleaned, value, check.unit, outcome, check_model.healthy.contains(value))
+    return Reading(check.id, cleaned, value, check.unit, outcome, check_model.healthy.contains(value),
+                   read_as if read_as != check.unit else "")
+
+
+def shown_scale(check_model: CheckModel) -> tuple[float, str]:
+    """(factor, prefixed unit) a bare number on this check is read in: the prefix of the expected
+    value the step shows, where the unit takes one (SHOWN_PREFIX_FROM); (1, unit) otherwise."""
+    unit, expected = check_model.check.unit, check_model.healthy
+    shown = next((v for v in (expected.nominal, expected.high, expected.low)
+                  if v is not None and math.isfinite(v) and v > 0), None)
+    if unit not in SHOWN_PREFIX_FROM or shown is None:
+        return 1.0, unit or ""
+    prefixed = format_quantity(shown, unit).split(" ", 1)[-1]  # as the step shows it: "uF"
+    scale = parse_quantity(f"1 {prefixed}", unit).value
+    if scale == 1.0 or math.log10(scale) < SHOWN_PREFIX_FROM[unit] - 1e-9:
+        return 1.0, unit
+    return scale, prefixed

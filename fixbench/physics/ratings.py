@@ -7,6 +7,7 @@ example].
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass
 
 from fixbench.quantities import ReadingError, format_quantity, parse_quantity
@@ -56,8 +57,11 @@ class Ratings:
 
     def as_text(self) -> dict[str, str]:
         """The ratings as the text dict a case file holds (inverse of :func:`parse_ratings`)."""
+        low = round(self.design_low / (1 - MAINS_TOLERANCE), 1)
+        high = round(self.design_high / (1 + MAINS_TOLERANCE), 1)
+        single = format_quantity(self.bench_mains, "V") if low == high == self.bench_mains else f"{low:g} V"
         text = {
-            "mains": "universal" if self.universal else format_quantity(self.bench_mains, "V"),
+            "mains": "universal" if self.universal else single if low == high else f"{low:g}-{high:g} V",
             "frequency": format_quantity(self.mains_hz, "Hz"),
             "output": format_quantity(self.output_v, "V"),
             "current": format_quantity(self.output_a, "A"),
@@ -86,6 +90,41 @@ def _value(ratings: dict[str, str], key: str, unit: str, default: str | None = N
     return measured.value
 
 
+@dataclass(frozen=True)
+class MainsLabel:
+    low: float
+    high: float
+    universal: bool
+    hz: float | None  # a single frequency printed on the label ("60Hz"); None for "50/60Hz" or none
+
+
+# The mains as labels print it: "230V~", "220-240V", "100-240V~ 50/60Hz", "AC 100-240V 0.5A",
+# "120 VAC 60 Hz" [practice: IEC 60417 symbol 5032 "~" for alternating current].
+_MAINS_LABEL = re.compile(
+    r"^(?:ac\s*)?(\d+(?:\.\d+)?)\s*(?:v\s*)?(?:[-\u2013/]\s*(\d+(?:\.\d+)?))?\s*v?\s*(?:~|ac|vac)?\s*"
+    r"(?:[,;]?\s*(\d+)(?:\s*/\s*(\d+))?\s*hz)?\s*(?:[,;]?\s*\d+(?:\.\d+)?\s*(?:m?a))?$")
+# A range reaching down to 110 V and up to 220 V covers both mains of the world: a universal input.
+UNIVERSAL_SPAN = (110.0, 220.0)
+
+
+def read_mains_label(text: str) -> MainsLabel | None:
+    """The mains part of a label as printed; None where the text is not in a label's form (then it
+    is read as a plain voltage, with that parser's message)."""
+    if len(text) > 60:  # a label's mains is a few words; longer text is read as a plain voltage
+        return None
+    found = _MAINS_LABEL.match(" ".join(text.strip().lower().split()))
+    if not found or not any(mark in text.lower() for mark in ("-", "\u2013", "/", "~", "ac", "hz")):
+        return None
+    low, high, hz1, hz2 = found.groups()
+    low_v = float(low)
+    high_v = float(high) if high else low_v
+    if high_v < low_v:
+        low_v, high_v = high_v, low_v
+    universal = low_v <= UNIVERSAL_SPAN[0] and high_v >= UNIVERSAL_SPAN[1]
+    hz = float(hz1) if hz1 and not hz2 else None
+    return MainsLabel(low_v, high_v, universal, hz)
+
+
 def parse_ratings(ratings: dict[str, str]) -> Ratings:
     """Read label ratings typed as text: {"mains": "230 V" or "universal", "frequency": "50 Hz",
     "output": "5 V", "current": "2 A", optional "bulk": "22 uF", "switching": "65 kHz",
@@ -97,21 +136,26 @@ def parse_ratings(ratings: dict[str, str]) -> Ratings:
         if not str(ratings.get(key, "")).strip():
             raise ReadingError(f"rating '{key}' is missing")
     mains_text = str(ratings["mains"]).strip().lower()
-    universal = mains_text in UNIVERSAL_WORDS
+    label = read_mains_label(str(ratings["mains"]))
+    universal = mains_text in UNIVERSAL_WORDS or (label is not None and label.universal)
+    label_hz = None if label is None else label.hz
     if universal:
         design_low, design_high = UNIVERSAL_LOW, UNIVERSAL_HIGH
         bench = _value(ratings, "bench_mains", "V", "230 V")
     else:
-        nominal = _value(ratings, "mains", "V")
-        if not 90 <= nominal <= 264:
-            raise ReadingError(f"rating 'mains': {nominal:g} V is not a mains voltage (90 to 264 V, or 'universal')")
-        design_low, design_high = nominal * (1 - MAINS_TOLERANCE), nominal * (1 + MAINS_TOLERANCE)
-        bench = _value(ratings, "bench_mains", "V", f"{nominal} V")
+        low, high = (label.low, label.high) if label is not None else (_value(ratings, "mains", "V"),) * 2
+        for nominal in (low, high):
+            if not 90 <= nominal <= 264:
+                raise ReadingError(f"rating 'mains': {nominal:g} V is not a mains voltage (90 to 264 V, or 'universal')")
+        design_low, design_high = low * (1 - MAINS_TOLERANCE), high * (1 + MAINS_TOLERANCE)
+        # A range label ("220-240 V") is tested on the shop's mains inside it, else its middle.
+        inside = next((v for v in (230.0, 120.0, 100.0) if low <= v <= high), round((low + high) / 2))
+        bench = _value(ratings, "bench_mains", "V", f"{inside if low != high else low} V")
     if not UNIVERSAL_LOW <= bench <= UNIVERSAL_HIGH:
         raise ReadingError(f"rating 'bench_mains': {bench:g} V is not a mains voltage "
                            f"({UNIVERSAL_LOW:g} to {UNIVERSAL_HIGH:g} V)")
     hz_default = "60 Hz" if (not universal and design_high < 150) else "50 Hz"
-    hz = _value(ratings, "frequency", "Hz", hz_default)
+    hz = _value(ratings, "frequency", "Hz", f"{label_hz:g} Hz" if label_hz else hz_default)
     if not 45 <= hz <= 65:
         raise ReadingError(f"rating 'frequency': {hz:g} Hz is not a mains frequency (50 or 60 Hz)")
     output_v = _value(ratings, "output", "V")

@@ -47,3 +47,20 @@ def test_number_reading_lands_in_the_class_of_its_value(model):
 def test_healthy_fuse_reads_in_band(model):
     reading = read(_check(model, "fuse_resistance"), "0.05 ohm")
     assert reading.in_band and reading.outcome == "ok"
+
+
+def test_a_bare_number_takes_the_prefix_the_step_shows(model):
+    # The case: "5.46" on a capacitance step that shows microfarads is 5.46 uF, and the
+    # reading says so for the echo.
+    bulk = read(_check(model, "bulk_capacitance"), "5.46")
+    assert bulk.value == pytest.approx(5.46e-6) and bulk.read_as == "uF"
+    assert read(_check(model, "bulk_capacitance"), "5.46 uF").read_as == ""  # typed with its unit
+    # A meter shows a diode drop in volts and a fuse in ohms: those bare numbers stay as typed
+    # [practice].
+    assert read(_check(model, "bridge_diode_test"), "0.55").value == pytest.approx(0.55)
+    fuse = read(_check(model, "fuse_resistance"), "0.1")
+    assert fuse.value == pytest.approx(0.1) and fuse.read_as == ""
+    # A start-up resistor the step shows in kilohm: "910" is 910 kohm.
+    start = _check(model, "start_resistor")
+    assert start.healthy.nominal > 1e5
+    assert read(start, "910").value == pytest.approx(910e3)

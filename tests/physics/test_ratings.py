@@ -112,3 +112,23 @@ def test_a_blank_optional_rating_is_one_not_given(key):
     # {"frequency": " "} was a TypeError comparing None with 45.
     assert parse_ratings(dict(CHARGER, **{key: " "})) == parse_ratings(
         {k: v for k, v in CHARGER.items() if k != key})
+
+
+@pytest.mark.parametrize("label, universal, low, high, bench, hz", [
+    # Labels as printed; "~" is alternating current [src: IEC 60417-5032]. A range from 100 V to
+    # 240 V is a universal input, designed for 85-265 V [src: TI UCC28C4x design example].
+    ("100-240V~ 50/60Hz", True, 85.0, 265.0, 230.0, 50.0),
+    ("AC 100-240V", True, 85.0, 265.0, 230.0, 50.0),
+    ("85-265 V", True, 85.0, 265.0, 230.0, 50.0),
+    # A narrow range: each end +/-10 % [src: IEC 60038 Table 1], tested on 230 V inside it.
+    ("220-240V", False, 198.0, 264.0, 230.0, 50.0),
+    ("230V~", False, 207.0, 253.0, 230.0, 50.0),
+    ("230V~ 50Hz 0.3A", False, 207.0, 253.0, 230.0, 50.0),
+    ("110-130V~ 60Hz", False, 99.0, 143.0, 120.0, 60.0),
+])
+def test_mains_is_read_as_labels_print_it(label, universal, low, high, bench, hz):
+    ratings = parse_ratings({"mains": label, "output": "5 V", "current": "1 A"})
+    assert ratings.universal is universal
+    assert (ratings.design_low, ratings.design_high) == (pytest.approx(low), pytest.approx(high))
+    assert (ratings.bench_mains, ratings.mains_hz) == (bench, hz)
+    assert parse_ratings(ratings.as_text()) == ratings  # a case file keeps the label's range
