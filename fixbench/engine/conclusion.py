@@ -12,6 +12,7 @@ from fixbench.engine.hypotheses import NO_FAULT
 from fixbench.engine.planner import CLEAR_ROOT, group_chances
 from fixbench.engine.repair_order import MINUTES_PER_MONEY, REPLACE_MINUTES, RepairStep, order_by_ratio
 from fixbench.physics.expectation import Expectation
+from fixbench.physics.replacement import replacement_spec
 
 REPLACE_ABOVE = 0.5  # a collateral part this likely failed is replaced, not just tested
 TEST_ABOVE = 0.03  # a collateral part at least this likely failed is tested before power-up
@@ -27,6 +28,9 @@ class PartAction:
     mode: str
     probability: float
     cost: float
+    label: str = ""  # the part as the board names it (its designator where a board profile gives one)
+    marking: str = ""  # what the board's part is marked with, where the profile says
+    spec: str = ""  # what a new part must be (physics.replacement): value, ratings, type, package
 
 
 @dataclass(frozen=True)
@@ -63,7 +67,8 @@ def conclude(model: FaultModel, posterior: np.ndarray) -> Conclusion:
 
     def action(part_id: str, mode: str, p: float) -> PartAction:
         part = family.part(part_id)
-        return PartAction(part_id, part.title, mode, p, part.cost)
+        return PartAction(part_id, part.title, mode, p, part.cost, part.label, part.marking,
+                          replacement_spec(part, model.ratings, family.design).text)
 
     replace = [action(pid, mode, p) for (pid, mode), p in part_chance.items()
                if (pid, mode) in roots or p >= REPLACE_ABOVE]

@@ -36,6 +36,7 @@ class Suspect:
     stage: str | None
     probability: float
     group: tuple[str, ...]  # root faults no check can tell from this one (itself included)
+    label: str = ""  # the part as the board names it (its designator where a board profile gives one)
 
 
 @dataclass(frozen=True)
@@ -115,8 +116,9 @@ class DiagnosisState:
                                    float(roots[r]), self.model.group_of(root)))
                 continue
             fault = family.fault(root)
-            out.append(Suspect(root, fault.title, fault.part, family.part(fault.part).stage,
-                               float(roots[r]), self.model.group_of(root)))
+            part = family.part(fault.part)
+            out.append(Suspect(root, fault.title, fault.part, part.stage, float(roots[r]),
+                               self.model.group_of(root), part.label))
         return tuple(out)
 
     @cached_property

@@ -30,8 +30,9 @@ def proposal_as_dict(p: Proposal | None) -> dict | None:
 def conclusion_as_dict(c: Conclusion | None) -> dict | None:
     if c is None:
         return None
-    part = lambda a: {"part": a.part, "title": a.title, "mode": a.mode, "probability": round(a.probability, 4),
-                      "cost": a.cost}
+    part = lambda a: {"part": a.part, "designator": a.label, "marking": a.marking or None, "title": a.title,
+                      "mode": a.mode, "probability": round(a.probability, 4), "cost": a.cost,
+                      "spec": a.spec}
     return {
         "faults": list(c.faults), "probability": round(c.probability, 4), "certain": c.certain,
         "no_fault": c.no_fault, "replace": [part(a) for a in c.replace],
@@ -48,7 +49,8 @@ def state_as_dict(state: DiagnosisState) -> dict:
         "family": state.family.id,
         "readings": [{"check": r.check, "value": r.text, "outcome": r.outcome, "in_band": r.in_band}
                      for r in state.readings],
-        "suspects": [{"fault": s.fault, "title": s.title, "part": s.part, "stage": s.stage,
+        "suspects": [{"fault": s.fault, "title": s.title, "part": s.part, "designator": s.label or None,
+                      "stage": s.stage,
                       "probability": round(s.probability, 6), "group": list(s.group)} for s in state.suspects],
         "next_check": proposal_as_dict(state.next_check),
         "conclusion": conclusion_as_dict(state.conclusion),
@@ -61,7 +63,7 @@ def state_text(state: DiagnosisState) -> str:
     say = lines.append
     say("Likely faults:")
     for s in state.suspects[:8]:
-        where = f" ({s.part}, {state.family.stage(s.stage).title})" if s.part else ""
+        where = f" ({s.label}, {state.family.stage(s.stage).title})" if s.part else ""
         together = f"  [cannot be told from: {', '.join(g for g in s.group if g != s.fault)}]" if len(s.group) > 1 else ""
         say(f"  {s.probability:6.1%}  {s.title}{where}{together}")
     p = state.next_check
@@ -77,9 +79,11 @@ def state_text(state: DiagnosisState) -> str:
     if c is not None:
         say(f"\nConclusion ({c.probability:.0%}{'' if c.certain else ', not certain'}): {', '.join(c.faults)}")
         for a in c.replace:
-            say(f"  replace {a.part} {a.title} ({a.mode})")
+            marked = f", marked {a.marking}" if a.marking else ""
+            say(f"  replace {a.label} {a.title} ({a.mode}{marked})")
+            say(f"    buy: {a.spec}")
         for a in c.test_before_power:
-            say(f"  test before power-up: {a.part} {a.title} ({a.probability:.0%} likely {a.mode})")
+            say(f"  test before power-up: {a.label} {a.title} ({a.probability:.0%} likely {a.mode})")
         for v in c.verify:
             shown = v.expected.describe() if v.expected else v.outcome
             say(f"  verify: {v.title}: {shown}")

@@ -38,7 +38,7 @@ _TEMPERATURE = re.compile(r"^(\d{2,3})\s*(?:\u00b0\s*)?C$")
 _NUMBER_THEN_UNIT = re.compile(r"(\d)\s+(?=[A-Za-z\u00b5\u03bc\u03a9\u2126\u00b0])")
 
 
-class BoardError(ValueError):
+class BoardError(ReadingError):
     """A profile that does not fit the family or a marking that cannot be read; the message names the
     part and says what to type."""
 
@@ -126,6 +126,8 @@ def read_marking(kind: str, text: str, rated: str = "") -> Marking:
                    rated_v=rated_v if rated_v is not None else marking.rated_v)
 
 
+KIND_WORDS = {"electrolytic": "an electrolytic capacitor", "film_capacitor": "a film capacitor",
+              "zener": "a Zener diode", "transformer": "a transformer winding"}
 _EXAMPLE = {"ohm": "2M2, 22R or 4.7 kohm", "F": "10 uF 400 V", "A": "T2A 250V", "V": "5V1"}
 
 
@@ -153,9 +155,9 @@ def _fuse(text: str) -> Marking:
 def _tokens(text: str, unit: str, kind: str) -> Marking:
     """Value, voltage rating, power and temperature grade, in any order: '10uF/400V 105C'."""
     figures: dict[str, float] = {}
-    for token in re.split(r"[\s,/]+", _NUMBER_THEN_UNIT.sub(r"\1", text)):
-        if not token:
-            continue
+    tokens = [t for t in re.split(r"[\s,/]+", _NUMBER_THEN_UNIT.sub(r"\1", text)) if t]
+    for token in tokens:
+        where = f"'{text}'" if len(tokens) == 1 else f"'{token}' in '{text}'"
         temperature = _TEMPERATURE.match(token)
         if temperature and kind in CAPACITOR_KINDS:  # the grade, "105C" [practice]
             _put(figures, "temperature_c", float(temperature.group(1)), token, text)
@@ -173,8 +175,8 @@ def _tokens(text: str, unit: str, kind: str) -> Marking:
         elif got == "W" and kind in ("resistor", "zener", "thermistor"):
             _put(figures, "power_w", measured.value, token, text)
         else:
-            raise BoardError(f"'{token}' in '{text}': a {kind.replace('_', ' ')} is marked with its value "
-                             f"in {unit}" + (" and its voltage" if kind in CAPACITOR_KINDS else ""))
+            raise BoardError(f"{where}: {KIND_WORDS.get(kind, 'a ' + kind.replace('_', ' '))} is marked with "
+                             f"its value in {unit}" + (" and its voltage" if kind in CAPACITOR_KINDS else ""))
     if "rated_v" in figures and not RATED_BOUNDS_V[0] <= figures["rated_v"] <= RATED_BOUNDS_V[1]:
         raise BoardError(f"'{text}': {format_quantity(figures['rated_v'], 'V')} is not a capacitor's rating")
     if math.isinf(figures.get("value", 0.0)):

@@ -309,3 +309,51 @@ class CautionAcknowledgement(Base):
                                          primary_key=True)
     technician_id: Mapped[int] = mapped_column(ForeignKey("technicians.id"))
     acknowledged_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class BoardProfileRow(Base):
+    """One unit model's board as the shop knows it, found again by the model text (migration 0008)."""
+
+    __tablename__ = "board_profiles"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    model: Mapped[str] = mapped_column(Text)  # as the shop typed it
+    model_key: Mapped[str] = mapped_column(Text, unique=True)  # case-folded, spaces collapsed
+    family_id: Mapped[str] = mapped_column(String(64))
+    updated_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class BoardPartRow(Base):
+    """What the board's part playing one of the family's parts is called and marked with."""
+
+    __tablename__ = "board_parts"
+    profile_id: Mapped[int] = mapped_column(ForeignKey("board_profiles.id", ondelete="CASCADE"),
+                                            primary_key=True)
+    part_id: Mapped[str] = mapped_column(String(32), primary_key=True)
+    designator: Mapped[str] = mapped_column(Text, server_default="")
+    value: Mapped[str] = mapped_column(Text, server_default="")
+    rated: Mapped[str] = mapped_column(Text, server_default="")
+    package: Mapped[str] = mapped_column(Text, server_default="")
+
+
+class BoardPhotoRow(Base):
+    """A photo of a profile's board, kept in the database so backups carry it whole."""
+
+    __tablename__ = "board_photos"
+    id: Mapped[int] = mapped_column(primary_key=True)
+    profile_id: Mapped[int] = mapped_column(ForeignKey("board_profiles.id", ondelete="CASCADE"),
+                                            index=True)
+    title: Mapped[str] = mapped_column(Text, server_default="")
+    image: Mapped[bytes] = mapped_column(LargeBinary)
+    sha256: Mapped[str] = mapped_column(String(64))
+    added_at: Mapped[datetime] = mapped_column(DateTime)
+
+
+class BoardPhotoMark(Base):
+    """Where a test point is on a photo, as fractions (0-1) of its width and height."""
+
+    __tablename__ = "board_photo_marks"
+    photo_id: Mapped[int] = mapped_column(ForeignKey("board_photos.id", ondelete="CASCADE"),
+                                          primary_key=True)
+    point_id: Mapped[str] = mapped_column(String(64), primary_key=True)
+    x: Mapped[float] = mapped_column(Float)
+    y: Mapped[float] = mapped_column(Float)

@@ -25,6 +25,8 @@ from fixbench.store.case_record import CaseRecord, KeptRepair, KeptVerification,
 from fixbench.store.cases import RankedSuspect
 from fixbench.store.database import Store
 from fixbench.store.shop_terms import shop_terms
+from fixbench.workflows.board_profiles import (KeptPhoto, PartEntry, board_of_model, board_photos,
+                                               family_on_board, keep_entry)
 
 
 @dataclass(frozen=True)
@@ -61,6 +63,7 @@ class Loaded:
     repairs: tuple[KeptRepair, ...] = ()
     verifications: tuple[KeptVerification, ...] = ()
     notice: str = ""
+    photos: tuple[KeptPhoto, ...] = ()  # of the model's board, with their marked test points
 
 
 def person_message(err: Exception) -> str:
@@ -108,10 +111,10 @@ def resume_case(store: Store, knowledge: KnowledgeBase, case_id: int) -> Loaded:
     verifications; a reading this build can no longer take is named in the notice. Ratings the
     family cannot describe raise :class:`RatingsToCorrect`."""
     record = load_case_record(store, case_id)
-    family = knowledge.family(record.family_id)
     try:
-        start = start_diagnosis(family, parse_ratings(record.ratings),
-                                priors.confirmed_fault_counts(store, family.id))
+        family, ratings = family_on_board(knowledge.family(record.family_id), parse_ratings(record.ratings),
+                                          board_of_model(store, record.model, record.family_id))
+        start = start_diagnosis(family, ratings, priors.confirmed_fault_counts(store, family.id))
     except ReadingError as err:
         raise RatingsToCorrect(record.id, record.ticket, dict(record.ratings), str(err)) from None
     replayed = replay_readings(start, ((r.check_id, r.typed) for r in record.standing_readings))
@@ -123,8 +126,22 @@ def resume_case(store: Store, knowledge: KnowledgeBase, case_id: int) -> Loaded:
     if replayed.refused:  # the knowledge base changed since they were typed
         notice += (" Not re-read (the checks changed): "
                    f"{', '.join(r.typed for r in replayed.refused)}.")
+    if family.parts != knowledge.family(record.family_id).parts:
+        notice += f" Board profile of {record.model}: {sum(p.marked or bool(p.designator) for p in family.parts)} parts."
     return Loaded(case_view(record, family), warm(state), record.repairs, record.verifications,
-                  notice)
+                  notice, board_photos(store, record.model, family.id))
+
+
+def keep_board_marking(store: Store, knowledge: KnowledgeBase, case_id: int, entry: PartEntry) -> Loaded:
+    """Keep what this board's part is called and marked with, for the case's model (the next unit
+    of it arrives with it), and resume the case with every expected reading recomputed for it."""
+    record = load_case_record(store, case_id)
+    keep_entry(store, knowledge.family(record.family_id), record.model, entry)
+    loaded = resume_case(store, knowledge, case_id)
+    part = loaded.state.family.part(entry.part)
+    said = f"marked {part.marking}" if part.marking else "its marking left out"
+    return replace(loaded, notice=f"Kept for every {record.model}: {part.title} is {part.label}, {said}. "
+                                  "Expected readings recomputed.")
 
 
 def correct_ratings(store: Store, knowledge: KnowledgeBase, case_id: int,

@@ -29,6 +29,7 @@ from fixbench.store.case_record import CaseRecord, KeptAmendment, LinkedJob, loa
 from fixbench.store.database import Store
 from fixbench.store.errors import StoreInputError
 from fixbench.store.shop_terms import labour_cents, shop_terms
+from fixbench.workflows.board_profiles import BoardProfile, board_of_model, family_on_board, named_on_board
 from fixbench.workflows.money import money_text
 from fixbench.workflows.trade_names import TradeNames, family_name, outcome_name
 
@@ -102,9 +103,12 @@ def expected_band(model: FaultModel | None, check_id: str, typed: str) -> tuple[
     return expected, in_band
 
 
-def fault_model_of(kb: KnowledgeBase, case: CaseRecord) -> FaultModel | None:
+def fault_model_of(kb: KnowledgeBase, case: CaseRecord, board: BoardProfile | None = None) -> FaultModel | None:
+    """The fault model the case's readings are read against (on the board of its model, where the
+    shop has a profile of it)."""
     try:
-        return cached_fault_model(kb.family(case.family_id), parse_ratings(dict(case.ratings)))
+        family, ratings = family_on_board(kb.family(case.family_id), parse_ratings(dict(case.ratings)), board)
+        return cached_fault_model(family, ratings)
     except (KeyError, ReadingError):
         return None  # shown as "no band known"; the record itself is still told in full
 
@@ -181,7 +185,8 @@ def _amendment_steps(names: TradeNames, family_id: str,
 def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
     names = TradeNames(kb)
     case = load_case_record(store, case_id)
-    model = fault_model_of(kb, case)
+    board = board_of_model(store, case.model, case.family_id)
+    model = fault_model_of(kb, case, board)
     fam = case.family_id
     terms = shop_terms(store)
     intake_lines = [f"{case.make} {case.model} ({case.kind}), {family_name(fam)}",
@@ -218,7 +223,8 @@ def load_case_story(store: Store, kb: KnowledgeBase, case_id: int) -> CaseStory:
                           tuple(lines), in_band))
     for repair in case.repairs:
         steps.append(Step(repair.done_at, "repair",
-                          f"{repair.action.capitalize()}: {names.part_label(repair.part_id, fam)}",
+                          f"{repair.action.capitalize()}: "
+                          f"{named_on_board(names.part_label(repair.part_id, fam), repair.part_id, board)}",
                           (f"Parts cost {money_text(repair.cost_cents, terms.currency)}",)
                           + ((f"Fitted: {repair.value_fitted}",) if repair.value_fitted else ())
                           + ((f"Test before power-up: {'passed' if repair.test_passed else 'failed'}",)

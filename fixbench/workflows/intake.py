@@ -15,7 +15,7 @@ from datetime import datetime
 
 from fixbench.engine import start_diagnosis
 from fixbench.knowledge import KnowledgeBase
-from fixbench.physics.ratings import UNIVERSAL_WORDS, parse_ratings
+from fixbench.physics.ratings import UNIVERSAL_WORDS, parse_ratings, read_mains_label
 from fixbench.quantities import ReadingError
 from fixbench.store import StoreInputError, cases, people, priors
 from fixbench.store.case_record import load_case_record
@@ -27,6 +27,7 @@ from fixbench.store.intake_lookups import (EarlierJob, KnownModel, earlier_job_u
                                            ticket_taken)
 from fixbench.store.shop_terms import shop_terms
 from fixbench.workflows.bench import Loaded, case_view, keep, warm
+from fixbench.workflows.board_profiles import board_of_model, board_photos, family_on_board
 
 # A label every rule of the parser accepts, to read one typed field against.
 REFERENCE_LABEL = {"mains": "230 V", "output": "5 V", "current": "1 A"}
@@ -80,7 +81,8 @@ def read_rating_field(key: str, text: str) -> str:
 
 def is_universal(mains_text: str) -> bool:
     """Whether the label's mains reads as a universal input (the parser's own words)."""
-    return mains_text.strip().lower() in UNIVERSAL_WORDS
+    label = read_mains_label(mains_text)
+    return mains_text.strip().lower() in UNIVERSAL_WORDS or (label is not None and label.universal)
 
 
 def label_ratings(typed: dict[str, str]) -> dict[str, str]:
@@ -104,11 +106,12 @@ def open_new_case(store: Store, knowledge: KnowledgeBase, technician_id: int,
     if ticket_taken(store, form.ticket):
         raise TicketInUse(f"ticket {form.ticket.strip()} is already a case: open it from the "
                           "list, or use another")
-    family = knowledge.family(form.family_id)
     # The engine is started before anything is kept: ratings the family cannot describe (an
-    # output below its reference) are refused here, not kept as a case that never opens.
-    state = start_diagnosis(family, parse_ratings(form.ratings),
-                            priors.confirmed_fault_counts(store, family.id))
+    # output below its reference) are refused here, not kept as a case that never opens. The
+    # shop's profile of this model's board, if any, gives the family its board's parts.
+    family, ratings = family_on_board(knowledge.family(form.family_id), parse_ratings(form.ratings),
+                                      board_of_model(store, form.model, form.family_id))
+    state = start_diagnosis(family, ratings, priors.confirmed_fault_counts(store, family.id))
     terms = shop_terms(store)
     now = utc_now()
     customer_id = (find_or_add_customer(store, form.customer_name,
@@ -137,4 +140,7 @@ def open_new_case(store: Store, knowledge: KnowledgeBase, technician_id: int,
     notice = "Case opened."
     if record.return_of is not None:
         notice += f" Kept as a warranty return of job {record.return_of.ticket}."
-    return Loaded(case_view(record, family), warm(state), notice=notice)
+    if family is not knowledge.family(form.family_id):
+        notice += f" The board profile of {form.model.strip()} is applied."
+    return Loaded(case_view(record, family), warm(state), notice=notice,
+                  photos=board_photos(store, form.model, family.id))

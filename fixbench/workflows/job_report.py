@@ -21,6 +21,7 @@ from fixbench.physics.ratings import describe_label
 from fixbench.store.case_record import CaseRecord, load_case_record
 from fixbench.store.database import Store
 from fixbench.store.shop_terms import ShopTerms, labour_cents, shop_terms
+from fixbench.workflows.board_profiles import board_of_model, named_on_board
 from fixbench.workflows.case_story import expected_band, fault_model_of
 from fixbench.workflows.money import money_text, rate_text
 from fixbench.workflows.trade_names import TradeNames, outcome_name
@@ -80,18 +81,21 @@ def job_report_content(store: Store, kb: KnowledgeBase, case_id: int) -> JobRepo
     terms = shop_terms(store)
     case = load_case_record(store, case_id)
     fam = case.family_id
+    board = board_of_model(store, case.model, fam)
+    part = lambda part_id: named_on_board(names.part_label(part_id, fam), part_id, board)
     if case.outcome == "no_fault_found":
         found = FOUND_NO_FAULT
     elif case.confirmed_fault:
         found = (f"{names.fault_label(case.confirmed_fault, fam)}: the "
-                 f"{names.part_label(case.confirmed_part, fam).lower()} had failed.")
+                 f"{named_on_board(names.part_label(case.confirmed_part, fam).lower(), case.confirmed_part, board)} "
+                 "had failed.")
     else:
         found = "No single faulty part was confirmed."
-    model = fault_model_of(kb, case)
-    replaced = tuple((names.part_label(r.part_id, fam), r.value_fitted or "",
+    model = fault_model_of(kb, case, board)
+    replaced = tuple((part(r.part_id), r.value_fitted or "",
                       money_text(r.cost_cents, terms.currency))
                      for r in case.repairs if r.action == "replaced")
-    checked = tuple((names.part_label(r.part_id, fam),
+    checked = tuple((part(r.part_id),
                      "tested good, kept" if r.test_passed else
                      "failed its test, replaced (above)" if r.test_passed is False else "tested")
                     for r in case.repairs if r.action == "tested")

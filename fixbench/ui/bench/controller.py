@@ -40,6 +40,7 @@ class BenchView:
     verifications: tuple[KeptVerification, ...] = ()
     last_verification: Reading | None = None  # the newest verification, read against its band
     notice: str = ""  # one line on what just happened ("reading kept", "undone: ...")
+    photos: tuple = ()  # photos of the model's board with their marked test points
 
 
 class BenchController(QObject):
@@ -127,7 +128,8 @@ class BenchController(QObject):
 
     def _loaded(self, loaded: bench.Loaded) -> None:
         self.view = BenchView(case=loaded.case, state=loaded.state, repairs=loaded.repairs,
-                              verifications=loaded.verifications, notice=loaded.notice)
+                              verifications=loaded.verifications, notice=loaded.notice,
+                              photos=loaded.photos)
         self.cases_changed.emit()
         self.view.conclusion = loaded.state.conclusion
         if loaded.case.status in ("repairing", "verifying") and self.view.conclusion is None:
@@ -171,8 +173,17 @@ class BenchController(QObject):
     def _after_reading(self, state: DiagnosisState) -> None:
         reading = state.readings[-1]
         mark = "in band" if reading.in_band else "OUT OF BAND"
-        self._show(state=state, notice=f"Kept: {reading.shown()} ({mark}).",
+        read_as = (f" The bare number {reading.text} was read in {reading.read_as}, as this step shows it."
+                   if reading.read_as else "")
+        self._show(state=state, notice=f"Kept: {reading.shown()} ({mark}).{read_as}",
                    conclusion=state.conclusion)
+
+    def keep_marking(self, entry) -> None:
+        """Keep what this board's part is marked with (for every unit of the model) and recompute."""
+        case, store, knowledge = self.view.case, self.context.store, self.context.knowledge
+        chosen = self.view.chosen_check
+        self._queue(lambda: bench.keep_board_marking(store, knowledge, case.id, entry),
+                    lambda loaded: (self._loaded(loaded), chosen and self._show(chosen_check=chosen)))
 
     def skip(self) -> None:
         check_id = self.current_check_id()
@@ -212,11 +223,12 @@ class BenchController(QObject):
     def record_repair(self, part_id: str, action: str, value_text: str, test_passed: bool | None,
                       cost_cents: int) -> None:
         case, store = self.view.case, self.context.store
+        name = self.view.state.family.part(part_id).label if self.view.state is not None else part_id
         kept = action if test_passed is None else (
             f"{action}, {'passed' if test_passed else 'failed'}")
         self._queue(lambda: bench.keep_repair(store, case, part_id, action, value_text,
                                                 test_passed, cost_cents),
-                    lambda repairs: self._show(repairs=repairs, notice=f"Kept: {part_id} {kept}."))
+                    lambda repairs: self._show(repairs=repairs, notice=f"Kept: {name} {kept}."))
 
     def go_verify(self) -> None:
         self.page_wanted.emit("verify")

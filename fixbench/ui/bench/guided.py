@@ -7,6 +7,8 @@ from PySide6.QtWidgets import (QHBoxLayout, QLabel, QListWidget, QSplitter, QVBo
 from PySide6.QtCore import Qt
 
 from fixbench.workflows import step_wording as wording
+from fixbench.workflows.board_profiles import photo_around, step_part
+from fixbench.ui.bench.board_part import MarkingDialog
 from fixbench.ui.bench.check_finder import CheckFinder
 from fixbench.ui.bench.look import heading
 from fixbench.ui.bench.stage_picture import StagePicture
@@ -56,6 +58,18 @@ class GuidedPanel(QWidget):
         self.card.undo_asked.connect(controller.undo)
         self.card.conclude_asked.connect(controller.conclude)
         self.card.other_check_asked.connect(self.find_check)
+        self.card.board.marking_asked.connect(self.ask_marking)
+
+    def ask_marking(self) -> None:
+        """"This board's part is marked ...": kept for the model, and the case recomputed for it."""
+        part = self.card.board.part
+        if part is None:
+            return
+        dialog = MarkingDialog(part, self)
+        if dialog.exec() and dialog.entry is not None:
+            self.controller.keep_marking(dialog.entry)
+        self.window().activateWindow()  # the window's keys work again at once
+        self.card.setFocus()
 
     def _typed(self, text: str) -> None:
         try:
@@ -83,6 +97,8 @@ class GuidedPanel(QWidget):
             self.card.show_done(state, view.conclusion)
         else:
             self.card.show_step(state, proposal)
+            part, words = step_part(state, proposal.check)
+            self.card.board.show_part(part, words, photo_around(view.photos, proposal.check.points))
         self.picture.show_state(state, proposal.check if proposal is not None else None)
         self.suspects_model.show_state(state)
         top = self.suspects_model.top()

@@ -22,10 +22,12 @@ from PySide6.QtWidgets import (QCheckBox, QComboBox, QCompleter, QFormLayout, QG
 
 from fixbench.quantities import ReadingError
 from fixbench.store.errors import StoreInputError
+from fixbench.ui.bench.board_profile import BoardProfileDialog
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.family_choice import FamilyChoice
 from fixbench.ui.bench.look import heading
 from fixbench.ui.workers import run_in_background
+from fixbench.workflows.board_profiles import board_of_model
 from fixbench.workflows.intake import (IntakeForm, customers_like, known_models, label_ratings,
                                        read_rating_field, ticket_in_use, warranty_check)
 from fixbench.workflows.money import read_amount
@@ -110,6 +112,7 @@ class IntakePanel(QWidget):
         self._fill_wanted = False
         self._load_known_models()
         self.model.edit.editingFinished.connect(self._fill_from_history)
+        self.model.edit.editingFinished.connect(self._look_up_board)
         for field in (self.model, self.serial, self.customer, self.contact):
             field.edit.editingFinished.connect(self._check_warranty)
         self.ticket.accepted.connect(self._check_ticket_in_use)
@@ -137,6 +140,16 @@ class IntakePanel(QWidget):
         right = QVBoxLayout()
         right.addWidget(heading("Supply family", factor=1.15))
         right.addWidget(self.family)
+        self.board_note = QLabel("Board profile: type the model and choose the family first.")
+        self.board_note.setWordWrap(True)
+        self.board_button = QPushButton("Board profile…")
+        self.board_button.setToolTip("This model's board: designators, markings and photos, kept for "
+                                     "every unit of the model")
+        self.board_button.clicked.connect(self.edit_board)
+        board_row = QHBoxLayout()
+        board_row.addWidget(self.board_note, 1)
+        board_row.addWidget(self.board_button)
+        right.addLayout(board_row)
         right.addStretch(1)
         columns = QHBoxLayout()
         columns.addLayout(left, 5)
@@ -264,8 +277,47 @@ class IntakePanel(QWidget):
         else:
             self.submit()
 
+    def _look_up_board(self) -> None:
+        """Say whether the shop has a board profile of this model (off the GUI thread)."""
+        model, family_id = self.model.text().strip(), self.family.family_id()
+        if not model or family_id is None:
+            self.board_note.setText("Board profile: type the model and choose the family first.")
+            return
+        store = self.controller.context.store
+
+        def shown(board) -> None:
+            if (model, family_id) != (self.model.text().strip(), self.family.family_id()):
+                return
+            if board is None or not board.parts:
+                self.board_note.setText(f"No board profile of {model} yet: the family's typical parts "
+                                        "are used until one is filled in.")
+            else:
+                self.board_note.setText(f"Board profile of {board.model}: {len(board.parts)} parts with "
+                                        "the board's own designators and markings; used for this unit.")
+
+        run_in_background(lambda: board_of_model(store, model, family_id), shown, self._lookup_failed)
+
+    def edit_board(self) -> BoardProfileDialog | None:
+        model, family_id = self.model.text().strip(), self.family.family_id()
+        if not model or family_id is None:
+            self.board_note.setText("⚠ Type the model and choose the family first: a profile "
+                                    "belongs to a model.")
+            return None
+        family = self.controller.context.knowledge.family(family_id)
+        ratings = {k: f.text() for k, f in self.ratings.items() if f.text().strip()}
+        dialog = BoardProfileDialog(self.controller.context, family, model, ratings, self)
+        dialog.finished.connect(self._board_closed)
+        dialog.open()
+        return dialog
+
+    def _board_closed(self, _result: int) -> None:
+        self._look_up_board()
+        self.window().activateWindow()  # Ctrl+Enter and the other keys work again at once
+        self.board_button.setFocus()
+
     def _family_chosen(self, family_id: str) -> None:
         family = self.controller.context.knowledge.family(family_id)
+        self._look_up_board()
         self.family.show_message("")
         ticked = {cid for cid, box in self.symptoms.items() if box.isChecked()}
         for box in self.symptoms.values():

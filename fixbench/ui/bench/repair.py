@@ -3,6 +3,8 @@ what was replaced (part, value fitted, cost) or tested (part, passed or failed).
 
 from __future__ import annotations
 
+import html
+
 from PySide6.QtWidgets import (QComboBox, QFormLayout, QHBoxLayout, QLabel, QListWidget, QPushButton,
                                QVBoxLayout, QWidget)
 from PySide6.QtCore import Qt
@@ -31,13 +33,13 @@ def parse_cost(text: str) -> int:
     return round(value * 100)
 
 
-def repair_line(repair) -> str:
+def repair_line(repair, label: str | None = None) -> str:
     """One kept repair line as the list shows it: "C2 replaced  22 uF 50 V  cost 0.45"."""
     done = repair.action
     if repair.test_passed is not None:
         done += ": passed" if repair.test_passed else ": failed"
     details = [text for text in (repair.value_fitted, repair.note) if text]
-    return "  ".join([f"{repair.part_id} {done}", *details, f"cost {repair.cost_cents / 100:.2f}"])
+    return "  ".join([f"{label or repair.part_id} {done}", *details, f"cost {repair.cost_cents / 100:.2f}"])
 
 
 class RepairPanel(QWidget):
@@ -135,11 +137,13 @@ class RepairPanel(QWidget):
                      for f in c.faults]
             sure = "" if c.certain else " (not certain: try the parts in the order below)"
             self.verdict.setText(f"Likely fault: {', '.join(names)}  \u2014 {c.probability:.0%}{sure}")
-            self.replace_label.setText("<b>Replace:</b> " + ("; ".join(
-                f"{a.part} {a.title}" for a in c.replace) or "nothing: no failed part found") +
-                ("<br><b>Try in this order:</b> " + ", ".join(s.part for s in c.repair_order)
+            self.replace_label.setText("<b>Replace:</b> " + ("".join(
+                f"<br>\u2022 <b>{html.escape(a.label)}</b> {html.escape(a.title)}: buy "
+                f"{html.escape(a.spec)}" for a in c.replace)
+                or "nothing: no failed part found") +
+                ("<br><b>Try in this order:</b> " + ", ".join(family.part(s.part).label for s in c.repair_order)
                  if c.repair_order else ""))
-            tests = "; ".join(f"{a.part} {a.title} ({a.probability:.0%} likely {a.mode})" for a in c.test_before_power)
+            tests = "; ".join(f"{a.label} {a.title} ({a.probability:.0%} likely {a.mode})" for a in c.test_before_power)
             self.test_label.setText(f"<b>Test before power-up:</b> {tests}<br>Discharge the bulk capacitor "
                                     "and confirm it reads under 5 V before touching the primary.")
             self.test_box.setVisible(bool(tests))
@@ -147,12 +151,13 @@ class RepairPanel(QWidget):
         self.part.clear()
         suggested = [a.part for a in (c.replace + c.test_before_power)] if c else []
         for part in sorted(family.parts, key=lambda p: (p.id not in suggested, suggested.index(p.id) if p.id in suggested else 0, p.id)):
-            self.part.addItem(f"{part.id}  {part.title}{'  (suggested)' if part.id in suggested else ''}", part.id)
+            self.part.addItem(f"{part.label}  {part.title}{'  (suggested)' if part.id in suggested else ''}", part.id)
         if current:
             self.part.setCurrentIndex(max(0, self.part.findData(current)))
         self.done_list.clear()
         for r in view.repairs:
-            self.done_list.addItem(repair_line(r))
+            known = {p.id for p in family.parts}
+            self.done_list.addItem(repair_line(r, family.part(r.part_id).label if r.part_id in known else None))
         self.verify_button.setEnabled(bool(view.repairs) or (c is not None and c.no_fault))
 
     def record(self) -> None:

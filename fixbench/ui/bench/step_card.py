@@ -12,6 +12,7 @@ from PySide6.QtWidgets import (QGridLayout, QHBoxLayout, QLabel, QPushButton, QV
                                QWidget)
 
 from fixbench.workflows import step_wording as wording
+from fixbench.ui.bench.board_part import BoardPartStrip
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.look import (BIG, CAUTION_HUE, GOOD_HUE, LARGE, SUSPECT_HUE, banner, bind_keys,
                                     heading, paint_banner, scaled_font)
@@ -38,6 +39,7 @@ class StepCard(QWidget):
         strip.addWidget(self.caution_label)
 
         self.title = heading("", factor=LARGE)
+        self.board = BoardPartStrip()  # the part on the board in hand, and its photo
         self.where = QLabel()
         self.where.setWordWrap(True)
         self.instrument = QLabel()
@@ -115,6 +117,7 @@ class StepCard(QWidget):
         layout.setContentsMargins(0, 0, 0, 0)
         layout.addWidget(self.power_strip)
         layout.addWidget(self.title)
+        layout.addWidget(self.board)
         layout.addLayout(details)
         layout.addLayout(expect_box)
         layout.addWidget(self.field)
@@ -168,10 +171,11 @@ class StepCard(QWidget):
 
     def show_done(self, state, conclusion) -> None:
         self.power_strip.setVisible(False)
+        self.board.show_part(None, "", None)
         self.title.setText("The checks are done: the conclusion is ready")
         self._label_rows(("Found", "Next", ""), False)
         top = state.suspects[0] if state.suspects else None
-        self.where.setText(f"Most likely: {top.title} ({top.part or 'no part'}, {top.probability:.0%})"
+        self.where.setText(f"Most likely: {top.title} ({top.label or 'no part'}, {top.probability:.0%})"
                            if top else "-")
         self.instrument.setText("Press Alt+R for the parts to replace, or Ctrl+F to measure more.")
         self.expected.setText("")
@@ -188,6 +192,7 @@ class StepCard(QWidget):
         while self.outcomes.count():
             item = self.outcomes.takeAt(0)
             if item.widget() is not None:
+                item.widget().hide()  # gone from this frame, not only once the deletion runs
                 item.widget().deleteLater()
         for name in names:
             button = QPushButton(OUTCOME_WORDS.get(name, name))

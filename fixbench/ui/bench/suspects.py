@@ -53,7 +53,7 @@ class SuspectsModel(QAbstractTableModel):
             if index.column() == FAULT:
                 return s.title
             if index.column() == PART:
-                return s.part or "-"
+                return s.label or "-"
             return self._family.stage(s.stage).title if s.stage else "-"
         if role == Qt.ItemDataRole.ToolTipRole and len(s.group) > 1:
             return "Cannot be told apart by any check from: " + ", ".join(g for g in s.group if g != s.fault)
