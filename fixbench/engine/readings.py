@@ -27,10 +27,11 @@ SYNONYMS = {
 }
 BEEP_WORDS = ("beeps", "beep", "continuity", "short", "shorted")
 # A bare number is read with the prefix the step shows its expected value in ("5.46" where 4.7 uF
-# is expected is 5.46 uF): capacitance always (nobody types farads), ohms and hertz from kilo up, as
-# meters show them on those ranges [practice]. Volts and small ohms are read as typed: a meter shows
-# a diode drop as 0.55 V and a fuse as 0.1 ohm. The lowest exponent each unit is scaled from:
-SHOWN_PREFIX_FROM = {"F": -15, "ohm": 3, "Hz": 3}
+# is expected is 5.46 uF) where a bare base unit is never what the instrument shows: capacitance,
+# and frequency from kilohertz up. Ohms and volts are read as typed: a meter shows a short as a bare
+# fraction of an ohm and a diode drop as 0.55 V, and reading "0.3" in the megohms a healthy
+# drain-source shows would hide the short [practice]. The lowest exponent each unit is scaled from:
+SHOWN_PREFIX_FROM = {"F": -15, "Hz": 3}
 _BARE_NUMBER = re.compile(r"[-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?")
 BEEP_VALUE = {"ohmmeter": 0.5, "esr": 0.01, "diode_test": 0.0}
 

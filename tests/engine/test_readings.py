@@ -60,7 +60,9 @@ def test_a_bare_number_takes_the_prefix_the_step_shows(model):
     assert read(_check(model, "bridge_diode_test"), "0.55").value == pytest.approx(0.55)
     fuse = read(_check(model, "fuse_resistance"), "0.1")
     assert fuse.value == pytest.approx(0.1) and fuse.read_as == ""
-    # A start-up resistor the step shows in kilohm: "910" is 910 kohm.
-    start = _check(model, "start_resistor")
-    assert start.healthy.nominal > 1e5
-    assert read(start, "910").value == pytest.approx(910e3)
+    # Ohms are read as typed even where the step shows megohms: a shorted switch typed "0.3" is
+    # 0.3 ohm, not 0.3 Mohm [practice: a meter shows a short as a fraction of an ohm].
+    drain = _check(model, "mosfet_drain_source")
+    assert drain.healthy.nominal > 1e5
+    shorted = read(drain, "0.3")
+    assert shorted.value == pytest.approx(0.3) and shorted.outcome == "short"
