@@ -158,7 +158,9 @@ def _switch(part: Part, ratings: Ratings, design: Design) -> Spec:
     stress = flyback.drain_peak(bulk_max(ratings), _vor(ratings))
     volts = _series(max(VOLTAGE_MARGIN * stress, design.switch_rating_v), SWITCH_SERIES_V)
     amps = SWITCH_CURRENT_MARGIN * _primary_peak(ratings)
-    what = "MOSFET, drain-source" if part.kind == "mosfet" else "NPN transistor, collector-base"
+    what = {"mosfet": "MOSFET, drain-source", "bjt": "NPN transistor, collector-base",
+            "integrated_controller": "the same controller type (its MOSFET is inside), drain"}.get(
+        part.kind, "switch")
     return Spec((f"{what} {format_quantity(volts, 'V')} or more (off-state peak about "
                  f"{format_quantity(stress, 'V')})", f"{format_quantity(amps, 'A', 2)} or more",
                  "same package and pin-out as fitted"),
@@ -219,7 +221,7 @@ def _thermistor(part: Part, ratings: Ratings, design: Design) -> Spec:
 _RULES = {
     "fuse": _fuse, "bulk_capacitor": _capacitor, "vcc_capacitor": _capacitor,
     "output_capacitor": _capacitor, "drive_capacitor": _capacitor, "switch": _switch,
-    "bridge": _bridge, "output_rectifier": _output_diode, "clamp_diode": _clamp_diode,
+    "integrated_switch": _switch, "bridge": _bridge, "output_rectifier": _output_diode, "clamp_diode": _clamp_diode,
     "aux_diode": _aux_diode, "inrush_limiter": _thermistor,
 }
 _KIND_RULES = {"resistor": _resistor, "zener": _zener, "electrolytic": _capacitor,

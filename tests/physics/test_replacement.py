@@ -59,3 +59,11 @@ def test_fuse_diodes_and_output_capacitor_name_their_type():
     assert "low-ESR" in _spec("pwm_flyback", "C3")
     assert "fusible" in _spec("self_oscillating", "F1")
     assert _spec("pwm_flyback", "U1") == "the same type as fitted"
+
+
+@pytest.mark.parametrize("mains", ["120 V", "230 V", "universal"])
+def test_every_part_of_every_family_has_a_spec(mains):
+    ratings = parse_ratings({"mains": mains, "output": "12 V", "current": "1 A"})
+    for family in KB.families.values():
+        for part in family.parts:
+            assert replacement_spec(part, ratings, family.design).text
