@@ -1,8 +1,10 @@
 """The main window: one tab per screen, and the start-up that opens the shop's database.
 
 The window shows first, with one line saying the shop is being opened; the store (migrations,
-backups) and the knowledge base are opened off the GUI thread, then the screens are built. So the
-window appears about as fast as a bare Qt window, whatever the size of the shop's records.
+backups) and the knowledge base are opened off the GUI thread, then the first screen (the bench) is
+built; each other screen is built when its tab is first opened. So the window appears about as
+fast as a bare Qt window, whatever the size of the shop's records, and is usable without waiting
+for the owner's and the trainee's screens (their imports, charts and first queries).
 """
 
 from __future__ import annotations
@@ -56,16 +58,21 @@ class MainWindow(QMainWindow):
             self.attach(context)
 
     def attach(self, context: AppContext) -> None:
-        """Build the screens over an open store (again, when the store is switched)."""
+        """Build the first screen over an open store (again, when the store is switched); the
+        others are built when their tab is first opened or a screen asks for them."""
         self.context = context
         self.tabs = QTabWidget()
         self.tabs.setDocumentMode(True)
-        self.screens = {}
+        self.screens = _Screens(self)
         for i, (title, path, tip) in enumerate(SCREENS):
-            screen = _load_screen(path, context)
-            self.screens[title] = screen
-            self.tabs.addTab(screen, title)
+            if i == 0:
+                page = self.screens.build(title, path)
+            else:
+                page = QWidget()
+                page.setObjectName("not_built_yet")
+            self.tabs.addTab(page, title)
             self.tabs.setTabToolTip(i, tip)
+        self.tabs.currentChanged.connect(self._tab_opened)
         settings = QPushButton("Shop settings\u2026")
         settings.setToolTip("Report footer and the owner's passphrase (Ctrl+,)")
         settings.clicked.connect(self.open_shop_settings)
@@ -78,6 +85,28 @@ class MainWindow(QMainWindow):
         self.setWindowTitle(_title(context))
         if bench is not None:
             bench.setFocus()
+
+    def _tab_opened(self, index: int) -> None:
+        if 0 <= index < len(SCREENS):
+            self.screens.get(SCREENS[index][0])
+
+    def _put_in_tab(self, title: str, screen: QWidget) -> None:
+        """Swap a tab's empty page for its built screen, keeping the tab that is open."""
+        index = [t for t, _, _ in SCREENS].index(title)
+        tabs = self.tabs
+        current = tabs.currentIndex()
+        tip = tabs.tabToolTip(index)
+        blocked = tabs.blockSignals(True)  # the swap is not the user changing tabs
+        try:
+            old = tabs.widget(index)
+            tabs.removeTab(index)
+            tabs.insertTab(index, screen, title)
+            tabs.setTabToolTip(index, tip)
+            tabs.setCurrentIndex(current)
+        finally:
+            tabs.blockSignals(blocked)
+        if old is not None and old is not screen:
+            old.deleteLater()
 
     def show_problem(self, text: str) -> None:
         self.opening.setText(text)
@@ -111,6 +140,35 @@ class MainWindow(QMainWindow):
         old = self.context
         self.attach(AppContext(store, old.knowledge))
         old.store.close()
+
+
+class _Screens(dict):
+    """The window's screens by tab title, each built the first time it is asked for (opening its
+    tab, or ``screens["History"]``): the window is usable once the first screen is drawn, without
+    waiting for the imports and the first queries of the others."""
+
+    def __init__(self, window: MainWindow) -> None:
+        super().__init__()
+        self.window = window
+
+    def build(self, title: str, path: str) -> QWidget:
+        screen = _load_screen(path, self.window.context)
+        super().__setitem__(title, screen)
+        return screen
+
+    def __missing__(self, title: str) -> QWidget:
+        paths = {t: path for t, path, _ in SCREENS}
+        if title not in paths:
+            raise KeyError(title)
+        screen = self.build(title, paths[title])
+        self.window._put_in_tab(title, screen)
+        return screen
+
+    def get(self, title: str, default=None):
+        try:
+            return self[title]
+        except KeyError:
+            return default
 
 
 def _title(context: AppContext) -> str:
