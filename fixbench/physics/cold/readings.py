@@ -85,14 +85,20 @@ def ohms(netlist: ColdNetlist, red: str, black: str, meter: Meter = HANDHELD,
     first = _raw_ohms(points[middle])
     k = next((i for i, r in enumerate(ranges) if first <= r.full_scale), len(ranges) - 1)
     linear = is_linear(elements, red, black)
-    if linear:  # the same V / I on every range
+    if linear:  # the same V / I on every range, up to the solver's rounding
         points[k] = points[middle] if k == middle else operating_point(elements, red, black, ranges[k])
+        # A reading at a range's full scale (400 ohm on the 400 ohm range) can come out a rounding
+        # above it on one range and below it on another: let that range's own solve decide.
+        if k > 0 and first <= ranges[k - 1].full_scale * (1.0 + 1e-9) and not math.isinf(reading(k - 1)):
+            k -= 1
+        while math.isinf(reading(k)) and k < len(ranges) - 1:
+            k += 1
     else:
         while math.isinf(reading(k)) and k < len(ranges) - 1:
             k += 1
         while k > 0 and not math.isinf(reading(k - 1)):
             k -= 1
-    value = (first if first <= ranges[k].full_scale else OL) if linear else _ohms_of(points[k], ranges[k])
+    value = _ohms_of(points[k], ranges[k])
     initial = _discharged_value(netlist, red, black, ranges[k], value, _ohms_of) if touch else value
     return MeterReading("ohmmeter", value, initial, ranges[k], points[k])
 

@@ -123,6 +123,16 @@ def _exhaustive_autorange(net: ColdNetlist, red: str, black: str):
     return math.inf, HANDHELD.ohms_ranges[-1]
 
 
+def test_autorange_at_a_range_full_scale_takes_that_range():
+    # Found by the property below: a 400 ohm resistor is the 400 ohm range's full scale; the middle
+    # range's solve put it a rounding above (400.00000000000006) and the reading went to 4000 ohm.
+    net = ColdNetlist((BoardPart("R0", "resistor", (("a", "a"), ("b", "b")), 400.0),))
+    value, source = _exhaustive_autorange(net, "a", "b")
+    reading = ohms(net, "a", "b")
+    assert reading.source == source  # [closed form: the lowest range whose full scale holds V / I]
+    assert reading.value == pytest.approx(400.0, rel=1e-9)
+
+
 @st.composite
 def junction_networks(draw):
     nodes = ["a", "b", "c", "d"]
