@@ -471,7 +471,7 @@ def live_deck(family: Family, ratings: Ratings, modes: dict[str, str], label: st
         f"RLEAKA {live} 0 100Meg", f"RLEAKB {node(bridge, 'ac2')} 0 100Meg",
         *ctx.cards,
         f"RLOAD {node(lead, 'b')} 0 {r.output_v / r.output_a:.6g}",
-        ".options rshunt=1e10 reltol=1e-3 itl4=100 method=gear",
+        ".options rshunt=1e10 reltol=1e-3 itl4=100",
         ".control",
         f"tran {period / 20:.6g} {stop:.6g} 0 {period / 40:.6g} uic",
         f"wrdata live.data {' '.join(traces)}",

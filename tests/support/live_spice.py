@@ -13,6 +13,7 @@ into the classes the operating model is compared on; :func:`model_classes` does 
 
 from __future__ import annotations
 
+import fcntl
 import hashlib
 import json
 import os
@@ -100,6 +101,13 @@ def save_cache(cache: dict[str, dict]) -> None:
 def simulate_all(decks: dict[str, tuple[str, float]], workers: int | None = None) -> dict[str, dict]:
     """Features of every deck (label -> (text, switching Hz)), from the cache where the text is
     there, else run in parallel ngspice processes and added to the cache file."""
+    # One process runs the missing decks while others (pytest-xdist workers) wait, then read them.
+    with open(Path(tempfile.gettempdir()) / "fixbench-live-spice.lock", "w") as lock:
+        fcntl.flock(lock, fcntl.LOCK_EX)
+        return _simulate_missing(decks, workers)
+
+
+def _simulate_missing(decks: dict[str, tuple[str, float]], workers: int | None) -> dict[str, dict]:
     cache = load_cache()
     missing = {label: deck for label, deck in decks.items() if deck_key(deck[0]) not in cache}
     if missing:
