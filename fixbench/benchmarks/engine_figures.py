@@ -47,6 +47,7 @@ BENCH_RATINGS = {
     "self_oscillating": {"mains": "230 V", "output": "5 V", "current": "1 A"},
     "integrated_opto": {"mains": "universal", "bench_mains": "230 V", "output": "12 V", "current": "1 A"},
     "integrated_primary_side": {"mains": "universal", "bench_mains": "120 V", "output": "5 V", "current": "1 A"},
+    "pwm_pfc": {"mains": "universal", "bench_mains": "230 V", "output": "19.5 V", "current": "4.62 A"},
 }
 DEFAULT_RATINGS = {"mains": "230 V", "output": "5 V", "current": "1 A"}
 MAX_STEPS = 80

@@ -27,6 +27,7 @@ from fixbench.physics.ratings import Ratings
 from fixbench.physics.sizing import bulk_capacitance, input_power, part_value
 from fixbench.physics.startup import Hiccup, hiccup
 
+from fixbench.engine.front_end import pfc_stage, settle_bulk
 from fixbench.engine.part_readings import DRIED_CAPACITANCE
 
 HICCUP_OUTPUT = 0.15  # meter average of a pulsing output, fraction of rated [practice]
@@ -36,7 +37,7 @@ DRIED_OUTPUT_SAG = 0.9  # loaded output with a dried output capacitor [practice]
 WEAK_LIMIT_SAG = 0.6  # loaded output with a current-limit set too low [practice]
 HEALTHY_RIPPLE_FRACTION = 0.4  # healthy output ripple as a share of its limit [practice]
 BURST_FREQUENCY = 0.2  # a frequency meter on a bursting gate reads a fraction of the clock [practice]
-PRIMARY_SHORT_ROLES = ("bridge", "bulk_capacitor", "switch")
+PRIMARY_SHORT_ROLES = ("bridge", "bulk_capacitor", "switch", "pfc_switch", "boost_diode")
 # An integrated controller is the controller and its switch in one part: a shorted drain is a
 # shorted switch (the whole IC is gone), a dead one is a dead controller.
 INTEGRATED_READS_AS = {"switch": {"short": "short"}, "controller": {"dead": "dead", "short": "dead"}}
@@ -139,7 +140,7 @@ def _bulk(w: _Work) -> None:
 def _startup_and_drive(w: _Work) -> None:
     """Whether the switch is driven, and the Vcc the controller sees."""
     design = w.family.design
-    if not w.flags["mains_ok"]:
+    if not w.flags["mains_ok"] or w.flags.get("bulk_dead"):
         w.flags["drive"] = "none"
         return
     if design.drive == "self_oscillating":
@@ -357,9 +358,11 @@ def _state(w: _Work) -> str:
 
 
 # Stage role -> what it computes, in causal order. Feedback runs first (a control stage); these
-# follow in the order power reaches their stages, which every family must agree with.
+# follow in the order power reaches their stages, which every family must agree with. A family
+# may leave out the optional ones (an active PFC front end).
+OPTIONAL_STEPS = ("pfc",)
 STAGE_STEPS = {
-    "input": _input, "rectifier": _rectifier, "bulk": _bulk, "startup": _startup_and_drive,
+    "input": _input, "rectifier": _rectifier, "pfc": pfc_stage, "bulk": _bulk, "startup": _startup_and_drive,
     "switch": _switch_and_transfer, "output_filter": _output,
 }
 
@@ -370,9 +373,10 @@ def stage_steps(family: Family) -> tuple:
     these stages, or orders them otherwise, cannot be run: that is said once, loudly."""
     roles = [role for role in dict.fromkeys(family.stage(s).role for s in power_order(family))
              if role in STAGE_STEPS]
-    if roles != list(STAGE_STEPS):
+    needed = [role for role in STAGE_STEPS if role not in OPTIONAL_STEPS or role in roles]
+    if roles != needed:
         raise ValueError(f"{family.source_file}: the operating model needs stages with roles "
-                         f"{', '.join(STAGE_STEPS)} in that power order; the family gives {', '.join(roles)}")
+                         f"{', '.join(needed)} in that power order; the family gives {', '.join(roles)}")
     return tuple(STAGE_STEPS[role] for role in roles)
 
 
@@ -382,6 +386,7 @@ def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[
     _feedback(w)
     for step in stage_steps(family):
         step(w)
+    settle_bulk(w)  # a PFC front end boosts the bulk once the controller's Vcc is up
     _control_signals(w)
     damage = _switch_destroyed(w)
     if damage:

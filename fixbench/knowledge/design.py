@@ -43,6 +43,8 @@ class Design:
     vcc_clamp_v: float | None = _figure("V", None)  # where Vcc ends up when the controller will not run
     vcc_target_v: float | None = _figure("V", None)  # Vcc the auxiliary winding holds when running
     controller_ref: str | None = _figure(None, None)  # the part the thresholds come from ("UC3842")
+    pfc_bulk_v: float | None = _figure("V", None)  # bulk rail an active PFC front end holds when running
+    pfc_hz: float | None = _figure("Hz", None)  # the PFC switch's frequency
 
 
 FIGURES = tuple(f.name for f in fields(Design) if f.name not in STAGE_FACTS)
@@ -77,6 +79,8 @@ def parse_design(reader, facts: dict[str, str], sources: dict[str, str]) -> Desi
         if number <= 0:
             raise reader.fail(name, f"must be positive (in {unit_of(name) or 'a fraction'})")
         values[name] = number
+    if ("pfc_bulk_v" in values) != ("pfc_hz" in values):
+        raise reader.fail("pfc_bulk_v", "a PFC front end needs both pfc_bulk_v and pfc_hz")
     if "switching_hz" not in values:
         raise reader.fail("switching_hz", "missing")
     if not values.get("switching_tolerance", 0.10) < 1:

@@ -32,7 +32,7 @@ INSTRUMENT_UNITS: dict[str, str | None] = {
 # none: nothing is touched (a symptom or a look).
 POWER_STATES = ("none", "cold", "lamp", "live")
 STAGE_ROLES = (
-    "input", "rectifier", "bulk", "startup", "drive", "switch", "clamp", "transformer",
+    "input", "rectifier", "pfc", "bulk", "startup", "drive", "switch", "clamp", "transformer",
     "output_rectifier", "output_filter", "feedback", "lead",
 )
 LINK_KINDS = ("power", "control")
@@ -43,6 +43,7 @@ SIDES = ("primary", "isolation", "secondary")
 PART_ROLES: dict[str, tuple[str, ...]] = {
     "fuse": ("input",), "inrush_limiter": ("input",),
     "bridge": ("rectifier",),
+    "boost_inductor": ("pfc",), "boost_diode": ("pfc",), "pfc_switch": ("pfc",), "pfc_controller": ("pfc",),
     "bulk_capacitor": ("bulk",),
     "start_resistor": ("startup",), "vcc_capacitor": ("startup",), "aux_diode": ("startup",),
     "base_resistor": ("startup",),
@@ -61,13 +62,14 @@ PART_ROLES: dict[str, tuple[str, ...]] = {
 PART_KINDS = (
     "fuse", "thermistor", "bridge", "electrolytic", "film_capacitor", "resistor", "fast_diode",
     "rectifier_diode", "schottky", "zener", "mosfet", "bjt", "controller", "transformer",
-    "optocoupler", "tl431", "lead", "integrated_controller",
+    "optocoupler", "tl431", "lead", "integrated_controller", "inductor",
 )
 # The pins of each kind of part, as the cold netlist names them, and those a stage file must place
 # (a transformer has only the windings it is wound with; a controller's drive and FB pins may go
 # unplaced where nothing of the model meets them).
 KIND_PINS: dict[str, tuple[str, ...]] = {
     "fuse": ("a", "b"), "thermistor": ("a", "b"), "resistor": ("a", "b"), "lead": ("a", "b"),
+    "inductor": ("a", "b"),
     "electrolytic": ("plus", "minus"), "film_capacitor": ("a", "b"),
     "rectifier_diode": ("anode", "cathode"), "fast_diode": ("anode", "cathode"),
     "schottky": ("anode", "cathode"), "zener": ("anode", "cathode"),
@@ -85,7 +87,7 @@ KIND_PINS: dict[str, tuple[str, ...]] = {
 # primary winding's resistance); other kinds are bought by type and have no value.
 KIND_VALUE_UNITS: dict[str, str] = {
     "fuse": "A", "thermistor": "ohm", "electrolytic": "F", "film_capacitor": "F", "resistor": "ohm",
-    "transformer": "ohm", "zener": "V",
+    "transformer": "ohm", "zener": "V", "inductor": "ohm",
 }
 KIND_REQUIRED_PINS: dict[str, tuple[str, ...]] = {
     "transformer": ("primary_a", "primary_b"), "controller": ("vcc", "gnd"),
@@ -308,6 +310,7 @@ KIND_MODES: dict[str, tuple[str, ...]] = {
     "controller": ("dead", "short"),
     "integrated_controller": ("short", "dead"),  # short: drain to source, the whole IC destroyed
     "transformer": ("open",),
+    "inductor": ("open",),
     "optocoupler": ("open", "short"),
     "tl431": ("open", "short"),
     "lead": ("open",),
@@ -317,7 +320,7 @@ KIND_MODES: dict[str, tuple[str, ...]] = {
 SIGNALS = (
     "bulk_voltage", "bulk_ripple", "vcc_voltage", "vcc_behaviour", "switching_frequency",
     "output_voltage", "output_loaded", "output_ripple", "plug_voltage",
-    "opto_led_voltage", "feedback_reference", "base_voltage", "drain_peak", "bridge_ac", "lamp", "residual_bulk", "dead",
+    "opto_led_voltage", "feedback_reference", "base_voltage", "drain_peak", "pfc_frequency", "bridge_ac", "lamp", "residual_bulk", "dead",
     "intermittent", "output_low", "output_high", "ticking", "whine", "hot", "fuse_blackened",
     "bulged", "scorched", "burnt_smell",
 )

@@ -20,6 +20,8 @@ SCHOTTKY_DROP = 0.5  # output Schottky at rated current [src: onsemi 1N5817/D, S
 SILICON_DROP = 0.8  # output fast silicon diode at rated current [src: 1N4007-class datasheets, approx.]
 RESIDUAL_SAFE_V = 5.0  # volts left on the bulk capacitor that count as discharged [practice]
 BULK_RIPPLE_MARGIN = 1.5  # healthy ripple limit over the computed figure (tolerance, ageing) [practice]
+# A PFC holds its output within a few percent of its set point at any mains and load [practice].
+PFC_BULK_TOLERANCE = 0.035
 VCC_RUN_HEADROOM = 6.0  # Vcc of a running controller stays within this above its design point [practice]
 
 
@@ -76,10 +78,20 @@ def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
         "opto_led_voltage": Expectation(1.1, semi.OPTO_LED_VF_MIN_LIT, semi.OPTO_LED_VF_MAX, "V"),
         "residual_bulk": Expectation(0.0, None, RESIDUAL_SAFE_V, "V"),
         "bridge_ac": Expectation(ratings.bench_mains, ratings.bench_low, ratings.bench_high, "V"),
-        "drain_peak": Expectation(flyback.drain_peak(peak, vor), peak + 0.5 * vor,
-                                  0.95 * design.switch_rating_v, "V"),
     }
     figures = {}
+    if design.pfc_bulk_v is not None:
+        # With the PFC running the bulk sits at its set point whatever the mains; stopped, at the
+        # rectified peak [practice; trade primer section 9].
+        boosted = design.pfc_bulk_v
+        numeric["bulk_voltage"] = Expectation(boosted, boosted * (1 - PFC_BULK_TOLERANCE),
+                                              boosted * (1 + PFC_BULK_TOLERANCE), "V")
+        numeric["pfc_frequency"] = Expectation(design.pfc_hz, design.pfc_hz * (1 - f_tol),
+                                               design.pfc_hz * (1 + f_tol), "Hz")
+        figures["bulk_without_pfc"] = Expectation(peak, peak_low, peak_high, "V")
+    bulk = numeric["bulk_voltage"].nominal
+    numeric["drain_peak"] = Expectation(flyback.drain_peak(bulk, vor), bulk + 0.5 * vor,
+                                        0.95 * design.switch_rating_v, "V")
     if design.feedback == "opto_tl431":
         grade = semi.TL431_VREF["plain"]
         numeric["feedback_reference"] = Expectation(grade.typical, grade.low, grade.high, "V")
@@ -96,7 +108,7 @@ def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
         ns_np = 1.0 / flyback.primary_to_secondary_ratio(vor, ratings.output_v, out_diode)
         flyback_v = (ratings.output_v + out_diode) * na_ns
         figures["aux_flyback"] = Expectation(flyback_v, None, None, "V")
-        figures["aux_forward"] = Expectation(-peak * na_ns * ns_np, None, None, "V")
+        figures["aux_forward"] = Expectation(-bulk * na_ns * ns_np, None, None, "V")
         figures["aux_rectified"] = Expectation(auxiliary_vcc(design, ratings, ratings.output_v), None, None, "V")
     else:
         # Base of a self-oscillating switch: the meter averages the drive to a few tenths of a volt,

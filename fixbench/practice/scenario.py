@@ -31,6 +31,8 @@ PRACTICE_UNITS: dict[str, tuple[dict[str, str], ...]] = {
                         {"mains": "230 V", "output": "5 V", "current": "2 A"}),
     "integrated_primary_side": ({"mains": "universal", "bench_mains": "230 V", "output": "5 V", "current": "1 A"},
                                 {"mains": "230 V", "output": "5 V", "current": "0.6 A"}),
+    "pwm_pfc": ({"mains": "universal", "bench_mains": "230 V", "output": "19.5 V", "current": "4.62 A"},
+                {"mains": "universal", "bench_mains": "120 V", "output": "20 V", "current": "6 A"}),
 }
 SURE_COLLATERAL = 0.8  # collateral this likely is part of the fault's textbook picture
 FALLBACK_UNIT = {"mains": "230 V", "output": "5 V", "current": "1 A"}

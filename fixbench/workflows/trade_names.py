@@ -18,7 +18,7 @@ STATUS_WORDS = {"intake": "At intake", "diagnosing": "Diagnosing", "repairing": 
                 "verifying": "Verifying", "closed": "Closed"}
 FAMILY_SHORT = {"pwm_flyback": "PWM flyback", "self_oscillating": "Self-oscillating",
                 "primary_side": "Primary-side regulated", "integrated_opto": "Integrated switch, opto",
-                "integrated_primary_side": "Integrated switch, primary-side"}
+                "integrated_primary_side": "Integrated switch, primary-side", "pwm_pfc": "PFC + PWM flyback"}
 
 
 def family_name(family_id: str) -> str:

@@ -50,6 +50,7 @@ def test_kinds_come_from_the_stage_files():
         "self_oscillating": ("self_oscillating", "opto_zener", "schottky"),
         "integrated_opto": ("controller", "opto_tl431", "schottky"),
         "integrated_primary_side": ("controller", "primary_side", "schottky"),
+        "pwm_pfc": ("controller", "opto_tl431", "schottky"),
     }
     assert knowledge.family("self_oscillating").design.start_v is None
 

@@ -63,9 +63,19 @@ def test_no_family_fits_names_the_closest_and_why(knowledge):
 def test_several_fitting_families_are_named_with_the_question_that_splits_them(knowledge):
     found = _identify(knowledge, controller_chip="yes")
     assert {f.id for f in found.fitting} == {"pwm_flyback", "primary_side", "integrated_opto",
-                                             "integrated_primary_side"}
+                                             "integrated_primary_side", "pwm_pfc"}
     assert found.deciding is not None and found.deciding.id == "separate_switch"
-    assert "4 families fit" in found.describe()
+    assert "5 families fit" in found.describe()
+
+
+def test_a_boost_stage_before_the_bulk_capacitor_is_the_pfc_family(knowledge):
+    found = _identify(knowledge, pfc_stage="yes")
+    assert found.family is not None and found.family.id == "pwm_pfc"
+    # an optocoupler board with a boost stage but no TL431: the PFC family is closest, and why
+    found = _identify(knowledge, controller_chip="yes", separate_switch="yes", optocoupler="yes", tl431="no",
+                      pfc_stage="yes")
+    assert [family.id for family, _ in found.closest] == ["pwm_pfc"]
+    assert "you saw no TL431" in found.describe()
 
 
 def test_no_answer_says_nothing(knowledge):

@@ -48,8 +48,13 @@ def test_stage_files_share_node_names_so_the_families_join_them(families):
     # The stages meet at nodes named alike in every stage file: the bulk capacitor, the bridge, the
     # start-up resistor, the clamp and the primary winding all reach bulk_plus.
     for family in families:
+        # Behind an active PFC the bridge feeds the boost inductor, and the boost diode the bulk.
         on_bulk = {p.role for p in family.parts for _, node in p.pins if node == "bulk_plus"}
-        assert {"bulk_capacitor", "bridge", "clamp_resistor", "transformer"} <= on_bulk, family.id
+        feeds_bulk = "boost_diode" if family.parts_with_role("boost_diode") else "bridge"
+        assert {"bulk_capacitor", feeds_bulk, "clamp_resistor", "transformer"} <= on_bulk, family.id
+        if feeds_bulk == "boost_diode":
+            on_rectified = {p.role for p in family.parts for _, node in p.pins if node == "rectified_plus"}
+            assert on_rectified == {"bridge", "boost_inductor"}, family.id
 
 
 def test_pin_a_kind_does_not_have(knowledge_copy):

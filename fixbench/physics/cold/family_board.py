@@ -31,6 +31,8 @@ VALUE_SPREAD: dict[str, tuple[float, float]] = {
     # A controller's supply pin to ground, unpowered: known only to within a few times [memory].
     "controller": (0.3, 3.0),
     "integrated_controller": (0.3, 3.0),
+    # a choke's copper at room temperature, from its wire and turns [practice]
+    "inductor": (0.5, 2.0),
 }
 # Kinds whose value in the knowledge files is not what the cold network needs (a fuse's current
 # rating): the cold model uses its own figure for them.

@@ -35,6 +35,7 @@ SECONDARY_WINDING_OHM = 0.05  # secondary of a 5-20 V output [practice]
 # Winding inductances, for the ESR meter's 100 kHz only: a charger primary of 0.5-3 mH; the other
 # windings scale down by the square of their turns ratio, tens of microhenry [practice].
 WINDING_HENRY = {"primary": 1.5e-3, "aux": 30e-6, "secondary": 15e-6}
+INDUCTOR_HENRY = 0.5e-3  # a PFC choke of adapters of 75-150 W: a few hundred uH [practice]
 
 # The failure modes each kind's cold model knows (besides "ok").
 MODES: dict[str, tuple[str, ...]] = {
@@ -44,6 +45,7 @@ MODES: dict[str, tuple[str, ...]] = {
     "zener": ("open", "short"), "bridge": ("open", "short"), "mosfet": ("open", "short"),
     "bjt": ("open", "short"), "controller": ("dead", "short"), "optocoupler": ("open", "short"),
     "tl431": ("open", "short"), "transformer": ("open",), "integrated_controller": ("short", "dead"),
+    "inductor": ("open",),
 }
 
 DIODE_JUNCTIONS = {"rectifier_diode": jn.SILICON_RECTIFIER, "fast_diode": jn.FAST_RECOVERY,
@@ -237,6 +239,13 @@ def cold_elements(part: BoardPart) -> tuple[Element, ...]:
                                         jn.SHUNT_REFERENCE_SUBSTRATE),))
     if kind == "transformer":
         return _transformer(part)
+    if kind == "inductor":
+        if part.value is None:
+            raise ValueError(f"{part.id}: an inductor needs its winding resistance as value")
+        if part.mode not in ("ok", "open"):
+            raise _mode_error(part)
+        return () if part.mode == "open" else (
+            Winding(part.id, node("a"), node("b"), part.value, part.figure("henry", INDUCTOR_HENRY)),)
     raise ValueError(f"{part.id}: no cold model for a part of kind '{kind}'")  # pragma: no cover
 
 

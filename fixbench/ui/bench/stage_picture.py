@@ -21,7 +21,7 @@ from fixbench.ui.bench.look import SUSPECT_HUE, blend
 PLACES = {
     "input": (0, 1), "rectifier": (1, 1), "bulk": (2, 1), "transformer": (3.5, 1),
     "output_rectifier": (5, 1), "output_filter": (6, 1), "lead": (7, 1),
-    "clamp": (3.5, 0), "startup": (1.5, 2), "drive": (2.5, 3), "switch": (3.5, 2),
+    "clamp": (3.5, 0), "startup": (1.5, 2), "drive": (2.5, 3), "switch": (3.5, 2), "pfc": (1.5, 0),
 }
 FEEDBACK_PLACE = {"secondary": (6, 2.5), "primary": (1.3, 3), "isolation": (4.5, 3)}
 COLUMNS, ROWS = 8, 4

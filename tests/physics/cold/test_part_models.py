@@ -19,7 +19,7 @@ from fixbench.physics.cold.part_models import (
 )
 
 VALUES = {"fuse": 2.0, "thermistor": 10.0, "resistor": 1e3, "lead": None, "electrolytic": 10e-6,
-          "film_capacitor": 10e-9, "zener": 3.9, "transformer": 2.0}
+          "film_capacitor": 10e-9, "zener": 3.9, "transformer": 2.0, "inductor": 0.3}
 
 
 def part_of(kind: str, mode: str = "ok") -> BoardPart:
@@ -96,3 +96,17 @@ def test_lifted_pin_floats_on_its_own_node():
     net = ColdNetlist((part_of("resistor"),)).with_lifted("X1", "b")
     (resistor,) = net.elements
     assert (resistor.a, resistor.b) == ("n_a", "X1.b(lifted)")
+
+
+def test_a_boost_inductor_is_a_winding_and_open_shows_nothing():
+    (choke,) = cold_elements(part_of("inductor"))
+    assert isinstance(choke, Winding) and choke.ohm == 0.3
+    assert cold_elements(part_of("inductor", "open")) == ()
+
+
+def test_a_shorted_integrated_switch_shorts_drain_to_source_and_its_supply_pin():
+    shorts = {(e.a, e.b) for e in cold_elements(part_of("integrated_controller", "short")) if isinstance(e, Resistor)}
+    assert shorts == {("n_drain", "n_source"), ("n_vcc", "n_source")}
+    healthy = cold_elements(part_of("integrated_controller"))
+    body = [e for e in healthy if isinstance(e, Junction) and e.name.endswith("body")]
+    assert len(body) == 1 and (body[0].anode, body[0].cathode) == ("n_source", "n_drain")

@@ -44,3 +44,20 @@ def test_a_board_no_family_fits_names_the_closest_and_why(qtbot, bench, tmp_path
     _answer(qtbot, intake, tl431=None)
     assert intake.family.family_id() == "integrated_opto"
     assert intake.family.suggestion.text().startswith("\u2192 That board fits: Integrated controller and MOSFET")
+
+
+def test_a_pfc_adapter_shows_its_boost_stage_before_the_bulk(qtbot, bench, tmp_path):
+    from tests.ui.bench.conftest import acknowledge, fill_intake
+
+    intake = fill_intake(qtbot, bench, ticket="BW-3090", make="Pellamor", model="PM-90", family="pwm_pfc",
+                         ratings={"mains": "universal", "output": "19.5 V", "current": "4.62 A"},
+                         symptoms=("symptom_dead",))
+    qtbot.keyClick(intake.ticket.edit, Qt.Key.Key_Return, Qt.KeyboardModifier.ControlModifier)
+    # the largest family's model is built once on opening, off the GUI thread: seconds on a slow machine
+    qtbot.waitUntil(lambda: not bench.controller.busy, timeout=120_000)
+    acknowledge(qtbot, bench)
+    picture = bench.panels["guided"].picture
+    assert picture.family.id == "pwm_pfc"
+    # the boost stage sits above the power path between the bridge and the bulk capacitor
+    assert picture.places["rectifier"][0] < picture.places["pfc"][0] < picture.places["bulk"][0]
+    shoot(bench.window(), tmp_path, "pfc_case")
