@@ -16,6 +16,7 @@ FIGURE_TITLES = {
     "aux_forward": ("d2_pins", "Auxiliary winding while the switch conducts (scope)"),
     "aux_rectified": ("d2_pins", "Auxiliary winding, rectified (feeds Vcc)"),
     "bulk_capacitance": ("bulk_plus/primary_ground", "Bulk capacitance assumed"),
+    "bulk_without_pfc": ("bulk_plus/primary_ground", "Bulk with the PFC stopped (the rectified peak)"),
 }
 
 HELP = "print the readings a healthy unit of given ratings shows at each test point"
