@@ -29,6 +29,7 @@ from fixbench.store.errors import StoreError, StoreFileError, StoreLocationError
 from fixbench.store.health import check_sqlite_file, newest_good_backup
 from fixbench.store.location import (DEFAULT_FILE_NAME, create_private_file, file_status,
                                      make_private_folder, resolve_url, sqlite_path)
+from fixbench.store.revisions import is_at_head
 
 BUSY_TIMEOUT_MS = 30_000
 READ_ONLY_OPTION = "fixbench_read_only"
@@ -88,11 +89,12 @@ def open_store(url_or_path: str | Path | None = None, *, migrate: bool = True,
     engine = _make_engine(url)
     store = Store(engine=engine, sessions=sessionmaker(engine, expire_on_commit=False), path=path)
     if migrate:
-        # alembic is imported only when a store is opened, not by everything that names a Store.
-        from fixbench.store.migrate import upgrade_to_head
-
         try:
-            upgrade_to_head(store)
+            if not is_at_head(store):
+                # alembic is imported only when a shop needs migrating, not on every start.
+                from fixbench.store.migrate import upgrade_to_head
+
+                upgrade_to_head(store)
         except StoreError:
             engine.dispose()
             raise

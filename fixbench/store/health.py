@@ -22,6 +22,7 @@ from pathlib import Path
 
 from fixbench.store.errors import NewerSchema, StoreFileError
 from fixbench.store.location import list_backups
+from fixbench.store.revisions import head, shipped_revisions
 
 SQLITE_MAGIC = b"SQLite format 3\x00"
 HEADER_BYTES = 100
@@ -99,13 +100,8 @@ def newest_good_backup(database: Path) -> Path | None:
 
 def refuse_newer(where: str, revision: str | None) -> None:
     """Raise :class:`NewerSchema` when ``revision`` is one this fixbench does not ship."""
-    if revision is None:
-        return
-    # alembic is imported only here, on a file that already holds a fixbench schema.
-    from fixbench.store.migrate import head_revision, known_revisions
-
-    if revision not in known_revisions():
-        raise NewerSchema(where, revision, head_revision())
+    if revision is not None and revision not in shipped_revisions():
+        raise NewerSchema(where, revision, head())
 
 
 def _read_only(path: Path) -> sqlite3.Connection:
