@@ -7,8 +7,11 @@ choice of checks, with the figures the engine is held to.
 - effort: mean minutes to the conclusion against a fixed input-to-output signal-tracing order, and
   against the exact optimal policy found by exhaustive search on a reduced model; the entropy lower
   bound on the number of checks;
-- safety: proposals of plain mains while a primary short is plausible, or of a cold primary check
-  after power without the discharge confirmation (must be zero);
+- safety: proposals of plain mains while a primary short is plausible or before the lamp flashed
+  and went dim or dark, of any power-up while an open clamp is plausible, of a cold primary check
+  while the bulk may be charged (units arrive charged) without the discharge confirmation, of a
+  no-load output reading without its over-voltage caution while an open loop is plausible (must
+  be zero);
 - speed: median time of one reading update plus the next-check choice on the largest family; a
   case file of 5,100 readings replayed to its next check.
 
@@ -27,8 +30,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from fixbench.engine import planner, simulate_readings
-from fixbench.engine.diagnosis import DiagnosisState, start_diagnosis
+from fixbench.engine import cautions, planner, simulate_readings
+from fixbench.engine.diagnosis import DiagnosisState, Proposal, start_diagnosis
 from fixbench.engine.fault_model import cached_fault_model
 from fixbench.engine.follow import follow_planner
 from fixbench.engine.hypotheses import root_weights
@@ -38,6 +41,7 @@ from fixbench.engine.simulate import simulated_unit
 from fixbench.knowledge import KnowledgeBase, load_knowledge
 from fixbench.knowledge.graph import power_order
 from fixbench.physics.cold.probing import solved_readings
+from fixbench.physics.part_values import rated_voltage
 from fixbench.physics.ratings import parse_ratings
 
 # One unit of each family the benchmark draws faults for.
@@ -71,16 +75,36 @@ def _true_group(state: DiagnosisState, root: str) -> tuple[str, ...]:
     return state.model.group_of(root)
 
 
-def _unsafe(state: DiagnosisState, check_id: str) -> int:
-    """Independent check of the safety rules on a proposal made in ``state``."""
-    model, post = state.model, state.posterior
-    check = state.family.check(check_id)
-    if check.power == "live" and (planner.primary_short_chance(model, post) > planner.SHORT_THRESHOLD
-                                  or not planner.lamp_cleared(model, state.evidence)):
+def breaks_safety_rule(state: DiagnosisState, proposal: Proposal) -> int:
+    """Independent check of the safety rules on a proposal made in ``state``: plain mains while a
+    primary short is plausible or before a lamp power-up that flashed and went dim or dark (a lamp
+    that never flashed proves nothing); any power-up while an open clamp is plausible; a hand on
+    the primary while the bulk may hold a charge (units arrive charged; again after any power-up);
+    a no-load output reading without the over-voltage caution while an output over its
+    capacitor's rating is plausible."""
+    model, post, family = state.model, state.posterior, state.family
+    check = proposal.check
+    if check.power in ("live", "lamp") and float(post[model.clamp_open].sum()) > planner.CLAMP_THRESHOLD:
         return 1
-    if (check.power == "cold" and state.powered_since_discharge and state.family.touches_primary(check)
-            and check.id != planner.DISCHARGE_CHECK):
+    if check.power == "live":
+        lamp = model.check_index(planner.LAMP_CHECK) if family.has_check(planner.LAMP_CHECK) else None
+        flashed = lamp is None or any(i == lamp and model.checks[i].classes.names[k] == "flash"
+                                      for i, k in state.evidence)
+        if float(post[model.primary_short].sum()) > planner.SHORT_THRESHOLD or not flashed:
+            return 1
+    charged = True
+    for reading in state.readings:
+        power = family.check(reading.check).power
+        charged = True if power in ("live", "lamp") else False if reading.check == planner.DISCHARGE_CHECK else charged
+    if check.power == "cold" and charged and family.touches_primary(check) and check.id != planner.DISCHARGE_CHECK:
         return 1
+    if check.power == "live" and check.target_kind == "signal" and check.target_id == "output_voltage":
+        caps = family.parts_with_role("output_capacitor")
+        rated = rated_voltage(caps[0], model.ratings, family.design) if caps else math.inf
+        over = np.array([op.values.get("output_voltage", 0.0) > rated for op in model.operations])
+        if float(post[over].sum()) > cautions.OVERVOLTAGE_PLAUSIBLE and not any(
+                c.startswith(cautions.OVERVOLTAGE) and "load on the output" in c for c in proposal.cautions):
+            return 1
     return 0
 
 
@@ -91,7 +115,7 @@ def run_engine(state: DiagnosisState, unit, root: str, timings: list[float] | No
     path = follow_planner(state, measure, MAX_STEPS)
     if timings is not None:
         measure.stop()
-    unsafe = sum(_unsafe(step.before, step.proposal.check.id) for step in path.steps)
+    unsafe = sum(breaks_safety_rule(step.before, step.proposal) for step in path.steps)
     return _score(path.final, root, path.minutes, len(path.steps), unsafe)
 
 
@@ -148,7 +172,7 @@ def run_fixed(state: DiagnosisState, unit, root: str) -> RunResult:
             break
         check_id = allowed[0]
         pending.remove(check_id)
-        if (state.powered_since_discharge and state.family.check(check_id).power == "cold"
+        if (state.bulk_may_be_charged and state.family.check(check_id).power == "cold"
                 and state.family.touches_primary(state.family.check(check_id))):
             state = state.with_reading(planner.DISCHARGE_CHECK, unit.measure(planner.DISCHARGE_CHECK))
             minutes += state.family.check(planner.DISCHARGE_CHECK).minutes

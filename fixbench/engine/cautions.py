@@ -9,7 +9,13 @@ practice come first.
 
 from __future__ import annotations
 
+import numpy as np
+
 from fixbench.knowledge.model import Check, Family
+from fixbench.physics.part_values import rated_voltage
+from fixbench.quantities import format_quantity
+
+from fixbench.engine.fault_model import FaultModel
 
 ES1_DC_MAX = 60.0
 ES2_DC_MAX = 120.0
@@ -23,6 +29,12 @@ SCOPE = ("A mains-earthed scope on a non-isolated primary shorts mains through i
          "isolation transformer or a differential probe.")
 LAMP = ("Power up through the series lamp, never straight from the wall, while a short on the primary "
         "is still possible.")
+OVERVOLTAGE = "The loop may be open"  # how the over-voltage caution begins (the benchmark looks for it)
+OVERVOLTAGE_PLAUSIBLE = 0.01  # chance of an output over its capacitor's rating that earns the caution
+NO_LOAD_OUTPUT = "output_voltage"  # the signal of the no-load output check
+LOAD_SHARE = 0.1  # the load put on the output: a tenth of the rated current [practice]
+OPEN_CLAMP = ("An open clamp (snubber diode or resistor) is still possible: powered, even through the lamp, "
+              "the switch can fail on the first cycles. Read the clamp diode and resistor cold first.")
 DEFER = "These notes do not replace local electrical codes or the practice of a licensed technician."
 
 
@@ -53,3 +65,29 @@ def cautions_for(family: Family, check: Check) -> tuple[str, ...]:
     if notes:
         notes.append(DEFER)
     return tuple(notes)
+
+
+def output_overvoltage(model: FaultModel, posterior: np.ndarray, check: Check) -> str | None:
+    """The caution for a no-load output reading while a unit with its loop open is plausible: the
+    output can rise past its capacitor's voltage rating, and an electrolytic over its rating can
+    vent or burst [practice]. A load on the output holds the rise down and is what a technician
+    puts on before switching such a unit on [practice]."""
+    if check.power != "live" or check.target_kind != "signal" or check.target_id != NO_LOAD_OUTPUT:
+        return None
+    family, ratings = model.family, model.ratings
+    caps = family.parts_with_role("output_capacitor")
+    if not caps:
+        return None
+    rated = rated_voltage(caps[0], ratings, family.design)
+    values = np.array([op.values.get(NO_LOAD_OUTPUT, 0.0) for op in model.operations])
+    over = values > rated
+    if float(posterior[over].sum()) <= OVERVOLTAGE_PLAUSIBLE:
+        return None
+    highest = float(values[over].max())
+    load_ohm = ratings.output_v / (LOAD_SHARE * ratings.output_a)
+    load_w = ratings.output_v ** 2 / load_ohm
+    return (f"{OVERVOLTAGE}: with no load the output can rise to about {format_quantity(highest, 'V', 2)}, over "
+            f"the output capacitor's {format_quantity(rated, 'V')} rating, and it can vent or burst. Put a "
+            f"load on the output before switching on (about {format_quantity(load_ohm, 'ohm', 2)}, rated "
+            f"{max(1, round(2 * load_w))} W or more), keep your face clear of the capacitor and switch off "
+            f"at once if the reading climbs past the label.")

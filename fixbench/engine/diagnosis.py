@@ -16,9 +16,10 @@ import numpy as np
 from fixbench.knowledge.model import Check, Family
 from fixbench.physics.expectation import Expectation
 from fixbench.physics.ratings import Ratings
+from fixbench.physics.series_lamp import lamp_how
 
 from fixbench.engine import planner
-from fixbench.engine.cautions import cautions_for, hazard_class
+from fixbench.engine.cautions import OPEN_CLAMP, cautions_for, hazard_class, output_overvoltage
 from fixbench.engine.conclusion import Conclusion, conclude
 from fixbench.engine.fault_model import FaultModel, cached_fault_model
 from fixbench.engine.hypotheses import NO_FAULT
@@ -51,6 +52,7 @@ class Proposal:
     hazard: str
     cautions: tuple[str, ...]
     reason: str
+    how: str  # the check's instructions for this unit (the series lamp named from its ratings)
 
 
 @dataclass(frozen=True)
@@ -132,20 +134,23 @@ class DiagnosisState:
         return chances
 
     @property
-    def powered_since_discharge(self) -> bool:
-        powered = False
+    def bulk_may_be_charged(self) -> bool:
+        """Whether the bulk capacitor may hold a charge now: a unit arrives charged (it was
+        unplugged from the wall, not discharged), so until a reading confirms the discharge, and
+        again after every power-up."""
+        charged = True
         for reading in self.readings:
             check = self.family.check(reading.check)
             if check.power in ("live", "lamp"):
-                powered = True
+                charged = True
             elif check.id == planner.DISCHARGE_CHECK:
-                powered = False
-        return powered
+                charged = False
+        return charged
 
     def _plan_state(self) -> planner.PlanState:
         skipped = frozenset(self.model.check_index(c) for c in self.skipped)
         done = {i for i, _ in self._evidence} | skipped
-        return planner.PlanState(frozenset(done), self.powered_since_discharge, self._evidence, skipped)
+        return planner.PlanState(frozenset(done), self.bulk_may_be_charged, self._evidence, skipped)
 
     @cached_property
     def next_check(self) -> Proposal | None:
@@ -154,8 +159,10 @@ class DiagnosisState:
         if i is None:
             return None
         check = self.model.checks[i].check
-        if check.id == planner.DISCHARGE_CHECK and state.powered_since_discharge:
-            return self._proposal(i, 0.0, "the unit was powered: confirm the bulk capacitor is discharged first")
+        if check.id == planner.DISCHARGE_CHECK and state.bulk_may_be_charged:
+            why = ("the unit was powered" if self.powered else "units arrive charged")
+            return self._proposal(i, 0.0, f"{why}: confirm the bulk capacitor is discharged before a hand "
+                                          f"goes on the primary")
         bits = planner.information_about_root(self.model, self.posterior, i)
         if any(r.check == check.id for r in self.readings):
             return self._proposal(i, bits, "take it again: the leading fault rests on this one reading, "
@@ -164,12 +171,24 @@ class DiagnosisState:
             return self._proposal(i, bits, "confirms the leading fault, which so far rests on one reading")
         return self._proposal(i, bits, f"tells {bits:.2f} bits about the fault in {check.minutes:g} min")
 
+    @property
+    def powered(self) -> bool:
+        """Whether the unit has been powered (lamp or mains) in this case."""
+        return any(self.family.check(r.check).power in ("live", "lamp") for r in self.readings)
+
     def _proposal(self, i: int, bits: float, reason: str) -> Proposal:
         check_model = self.model.checks[i]
         check = check_model.check
+        notes = cautions_for(self.family, check)
+        overvoltage = output_overvoltage(self.model, self.posterior, check)
+        if overvoltage:
+            notes = (overvoltage,) + notes
+        if check.power in ("live", "lamp") and not self.power_up_allowed:
+            notes = (OPEN_CLAMP,) + notes
+        how = lamp_how(self.model.ratings) if check.id == planner.LAMP_CHECK else check.how
         return Proposal(check, check.title, check.power, check_model.healthy, check_model.healthy_outcome,
                         check.minutes, bits, hazard_class(self.family, check, self.model.ratings.output_v),
-                        cautions_for(self.family, check), reason)
+                        notes, reason, how)
 
     def discharge_needed_before(self, check_id: str) -> bool:
         """Whether the bulk capacitor's discharge must be confirmed before this check (the
@@ -178,9 +197,15 @@ class DiagnosisState:
 
     @property
     def live_allowed(self) -> bool:
-        """Whether plain mains may be applied now (no plausible short, lamp test not bright)."""
-        return (planner.primary_short_chance(self.model, self.posterior) <= planner.SHORT_THRESHOLD
-                and planner.lamp_cleared(self.model, self._evidence))
+        """Whether plain mains may be applied now: no plausible short, a lamp power-up that flashed
+        and went dim or dark, and no plausible open clamp (the planner's rule)."""
+        return planner.live_allowed(self.model, self.posterior, self._evidence)
+
+    @property
+    def power_up_allowed(self) -> bool:
+        """Whether the unit may be powered at all, even through the series lamp: not while an open
+        clamp is plausible (the switch would avalanche on the first cycles)."""
+        return planner.power_up_allowed(self.model, self.posterior)
 
     @cached_property
     def conclusion(self) -> Conclusion | None:

@@ -31,6 +31,7 @@ from fixbench.engine.part_readings import cold_reading
 # [practice; the 5 % wrong-reading rate of the engine benchmark sits above the meters' figure].
 WRONG_READING = {"question": 0.10, "eyes": 0.06, "ears": 0.08, "nose": 0.10, "series_lamp": 0.03}
 WRONG_READING_METER = 0.04
+OPEN_CLAMP_ROLES = ("clamp_diode", "clamp_resistor")  # open, the switch avalanches when powered [practice]
 TOLERANCE = 0.03  # relative spread of a predicted value: meter accuracy plus part tolerance [practice]
 
 
@@ -65,6 +66,7 @@ class FaultModel:
     prior: np.ndarray  # over hypotheses
     groups: tuple[tuple[str, ...], ...]  # roots no check can tell apart, each a group
     primary_short: np.ndarray  # bool per hypothesis
+    clamp_open: np.ndarray  # bool per hypothesis: the switch's clamp (diode or resistor) open
 
     def check_index(self, check_id: str) -> int:
         for i, model in enumerate(self.checks):
@@ -159,7 +161,12 @@ def build_fault_model(family: Family, ratings: Ratings,
     prior = prior / prior.sum()
     return FaultModel(family, ratings, healthy, hypotheses, operations, checks, roots, root_of, prior,
                       _groups(roots, root_of, prior, checks),
-                      np.array([op.primary_short for op in operations]))
+                      np.array([op.primary_short for op in operations]),
+                      np.array([_opens_clamp(family, h) for h in hypotheses], dtype=bool))
+
+
+def _opens_clamp(family: Family, hypothesis: Hypothesis) -> bool:
+    return any(mode == "open" and family.part(part).role in OPEN_CLAMP_ROLES for part, mode in hypothesis.modes)
 
 
 @lru_cache(maxsize=32)

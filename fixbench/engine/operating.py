@@ -21,7 +21,7 @@ from functools import lru_cache
 
 from fixbench.knowledge.graph import power_order
 from fixbench.knowledge.model import Family
-from fixbench.physics import bulk_rail
+from fixbench.physics import bulk_rail, series_lamp
 from fixbench.physics.healthy import HealthyUnit, auxiliary_vcc
 from fixbench.physics.ratings import Ratings
 from fixbench.physics.sizing import bulk_capacitance, input_power, part_value
@@ -399,7 +399,8 @@ def operate(family: Family, ratings: Ratings, healthy: HealthyUnit, modes: dict[
         behaviour = "zero" if vcc < 1.0 else "cycling" if state == "hiccup" else "steady"
         outcomes["vcc_behaviour"] = {behaviour: 1.0}
         del w.values["vcc_behaviour"]
-    lamp = "off" if w.flags["path_open"] else "bright" if w.flags["primary_short"] else "dim"
+    lamp = series_lamp.NO_FLASH if w.flags["path_open"] else \
+        series_lamp.BRIGHT if w.flags["primary_short"] else series_lamp.FLASH
     outcomes["lamp"] = {lamp: 1.0}
     w.values["residual_bulk"] = 0.0
     return Operation(state, dict(w.values), outcomes, bool(w.flags["primary_short"]),

@@ -1,13 +1,22 @@
 """Choosing the next check: the most information about the root fault per minute of bench time,
 among the checks that are safe now.
 
-Safety comes before information. While any hypothesis that shorts the primary (bridge, bulk
-capacitor or switch shorted) keeps more than SHORT_THRESHOLD of the posterior, plain mains is never
-proposed: only cold checks and the series-lamp power-up. And plain mains always waits for a
-series-lamp power-up that did not glow bright: a unit whose short left the fuse intact can look
-healthy to every cold check the planner chose, and only the lamp shows it without blowing the fuse. After the unit has been powered (lamp or
-live), a cold check that touches the primary is preceded by confirming the bulk capacitor is
-discharged.
+Safety comes before information:
+
+- While any hypothesis that shorts the primary (bridge, bulk capacitor or switch shorted) keeps more
+  than SHORT_THRESHOLD of the posterior, plain mains is never proposed: only cold checks and the
+  series-lamp power-up.
+- Plain mains always waits for a series-lamp power-up that flashed and went dim or dark: a unit whose
+  short left the fuse intact can look healthy to every cold check the planner chose, and only the
+  lamp shows it without blowing the fuse. A lamp that never flashed had no path through it (an open
+  fuse, thermistor or lead): it proves nothing about a short behind the open part, so it does not
+  count [practice; trade primer, section 8].
+- While an open clamp (clamp diode or resistor) keeps more than CLAMP_THRESHOLD of the posterior, the
+  unit is not powered at all, not even through the lamp: without the clamp the leakage spike
+  avalanches the switch on the first cycles [practice]. The clamp is read cold first.
+- Units arrive charged: before the first hand on the primary of every case, and after every
+  power-up, a cold check that touches the primary is preceded by confirming the bulk capacitor is
+  discharged.
 
 A conclusion must not hang on one reading: before stopping, the posterior is recomputed with each
 reading left out in turn; if the leading fault then falls below FRAGILE_BELOW, the search goes on
@@ -29,8 +38,10 @@ import numpy as np
 from fixbench.engine.fault_model import FaultModel
 from fixbench.knowledge.model import Check
 from fixbench.engine.inference import information_about_root, log_likelihood, root_posterior
+from fixbench.physics.series_lamp import FLASH
 
 SHORT_THRESHOLD = 0.02  # posterior of a primary short above which plain mains is not proposed
+CLAMP_THRESHOLD = 0.02  # posterior of an open clamp above which the unit is not powered at all
 CLEAR_ROOT = 0.95  # a root fault (or group) this likely ends the search
 MIN_INFORMATION = 0.03  # bits: below this a check is not worth its minutes
 FRAGILE_BELOW = 0.5  # leading fault's share without one reading, under which the conclusion is fragile
@@ -44,7 +55,7 @@ class PlanState:
     """What the planner must know beyond the posterior."""
 
     done: frozenset[int]  # check indices read or skipped
-    powered_since_discharge: bool  # the unit was powered and the bulk not yet confirmed discharged
+    bulk_may_be_charged: bool  # no discharge confirmed since the unit came in or was last powered
     evidence: tuple[tuple[int, int], ...] = ()  # readings so far, for the fragility test
     skipped: frozenset[int] = frozenset()
 
@@ -61,23 +72,41 @@ def group_chances(model: FaultModel, posterior: np.ndarray) -> list[tuple[tuple[
     return sorted(chances, key=lambda item: -item[1])
 
 
+def open_clamp_chance(model: FaultModel, posterior: np.ndarray) -> float:
+    return float(posterior[model.clamp_open].sum())
+
+
 def lamp_cleared(model: FaultModel, evidence: tuple[tuple[int, int], ...]) -> bool:
-    """Whether a series-lamp power-up has read anything but bright (no short across the mains).
-    A family without the lamp check relies on the posterior alone."""
+    """Whether a series-lamp power-up has flashed and gone dim or dark (a path, and no short across
+    it). Steady bright is a short; no flash at all is no path, which proves nothing about a short
+    behind it. A family without the lamp check relies on the posterior alone."""
     if not model.family.has_check(LAMP_CHECK):
         return True
     lamp = model.check_index(LAMP_CHECK)
     names = model.checks[lamp].classes.names
-    return any(i == lamp and names[k] != "bright" for i, k in evidence)
+    return any(i == lamp and names[k] == FLASH for i, k in evidence)
+
+
+def power_up_allowed(model: FaultModel, posterior: np.ndarray) -> bool:
+    """Whether the unit may be powered at all (lamp or mains): not while an open clamp is plausible."""
+    return open_clamp_chance(model, posterior) <= CLAMP_THRESHOLD
+
+
+def live_allowed(model: FaultModel, posterior: np.ndarray, evidence: tuple[tuple[int, int], ...]) -> bool:
+    """Whether plain mains may be applied now."""
+    return (power_up_allowed(model, posterior) and primary_short_chance(model, posterior) <= SHORT_THRESHOLD
+            and lamp_cleared(model, evidence))
 
 
 def is_allowed(model: FaultModel, posterior: np.ndarray, check_index: int,
                evidence: tuple[tuple[int, int], ...] = ()) -> bool:
-    """Whether proposing this check now is safe: plain mains only once a short on the primary is
-    implausible and the series lamp has shown none."""
+    """Whether proposing this check now is safe: no power while an open clamp is plausible; plain
+    mains only once a short on the primary is implausible and the series lamp has shown none."""
     check = model.checks[check_index].check
     if check.power == "live":
-        return primary_short_chance(model, posterior) <= SHORT_THRESHOLD and lamp_cleared(model, evidence)
+        return live_allowed(model, posterior, evidence)
+    if check.power == "lamp":
+        return power_up_allowed(model, posterior)
     return True
 
 
@@ -152,6 +181,11 @@ def choose(model: FaultModel, posterior: np.ndarray, state: PlanState) -> int | 
                       or _confirmations(model, posterior, state))
     if not candidates:
         return None
+    if model.family.has_check(DISCHARGE_CHECK) and model.check_index(DISCHARGE_CHECK) in state.skipped:
+        # The discharge confirmation was skipped: go on with checks that keep hands off the primary,
+        # and ask for it again only when none is left.
+        clear = [c for c in candidates if not discharge_first(model, state, model.checks[c[2]].check)]
+        candidates = clear or candidates
     best = candidates[0][2]
     if discharge_first(model, state, model.checks[best].check):
         return model.check_index(DISCHARGE_CHECK)
@@ -161,5 +195,5 @@ def choose(model: FaultModel, posterior: np.ndarray, state: PlanState) -> int | 
 def discharge_first(model: FaultModel, state: PlanState, check: Check) -> bool:
     """Whether a hand on ``check`` now must wait for the bulk capacitor's discharge to be confirmed.
     The one statement of the rule: the planner follows it, and practice judges a trainee by it."""
-    return (state.powered_since_discharge and check.power == "cold" and check.id != DISCHARGE_CHECK
+    return (state.bulk_may_be_charged and check.power == "cold" and check.id != DISCHARGE_CHECK
             and model.family.touches_primary(check) and model.family.has_check(DISCHARGE_CHECK))

@@ -18,13 +18,17 @@ from fixbench.quantities import ReadingError, format_quantity, parse_quantity
 SYNONYMS = {
     "yes": ("y", "yes", "true", "1", "reported", "seen", "heard"),
     "no": ("n", "no", "false", "0", "none", "not"),
-    "bright": ("bright", "glows bright", "full", "full brightness", "lit", "on"),
-    "dim": ("dim", "flash", "flash then dark", "flash then dim", "glows dim", "dark after flash"),
-    "off": ("off", "dark", "nothing", "no glow", "never lights"),
+    "bright": ("bright", "glows bright", "steady bright", "full", "full brightness", "lit", "on"),
+    "flash": ("flash", "dim", "flash then dark", "flash then dim", "flash, then dim or dark", "glows dim",
+              "dark after flash", "dim after flash", "flash then off"),
+    "no_flash": ("no flash", "no flash at all", "never lights", "never flashes", "nothing", "no glow"),
     "steady": ("steady", "stable", "constant"),
     "cycling": ("cycling", "cycles", "saw-tooth", "sawtooth", "up and down", "ticking", "pumping"),
     "zero": ("zero", "0 v", "nothing"),
 }
+# Words that do not say what was seen at switch-on: a lamp dark after its flash is a healthy unit, a
+# lamp that never flashed has no path through it [practice; trade primer, section 8].
+AMBIGUOUS = {"dark": "flash", "off": "flash"}
 BEEP_WORDS = ("beeps", "beep", "continuity", "short", "shorted")
 # A bare number is read with the prefix the step shows its expected value in ("5.46" where 4.7 uF
 # is expected is 5.46 uF) where a bare base unit is never what the instrument shows: capacitance,
@@ -59,6 +63,10 @@ def read(check_model: CheckModel, text: str) -> Reading:
         for outcome in classes.names:
             if word == outcome or word in SYNONYMS.get(outcome, ()):
                 return Reading(check.id, cleaned, None, None, outcome, outcome == check_model.healthy_outcome)
+        if word in AMBIGUOUS and AMBIGUOUS[word] in classes.names:
+            raise ReadingError(f"'{cleaned}': did the lamp flash as you switched on? Type 'flash then dark' "
+                               f"(normal for a healthy unit) or 'no flash' (no path: open fuse, thermistor "
+                               f"or lead)")
         raise ReadingError(f"'{cleaned}' is not an answer here: pick one of {', '.join(classes.names)}")
     read_as = ""
     if cleaned.lower() in BEEP_WORDS and check.instrument in BEEP_VALUE:

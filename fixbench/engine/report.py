@@ -24,7 +24,7 @@ def proposal_as_dict(p: Proposal | None) -> dict | None:
     return {"check": p.check.id, "title": p.title, "power": p.power, "instrument": p.check.instrument,
             "points": list(p.check.points), "expected": _expectation(p.expected, p.expected_outcome),
             "minutes": p.minutes, "information_bits": round(p.information, 4), "hazard": p.hazard,
-            "cautions": list(p.cautions), "how": p.check.how, "reason": p.reason}
+            "cautions": list(p.cautions), "how": p.how, "reason": p.reason}
 
 
 def conclusion_as_dict(c: Conclusion | None) -> dict | None:
@@ -72,7 +72,7 @@ def state_text(state: DiagnosisState) -> str:
         say(f"  between: {', '.join(state.family.test_point(t).title for t in p.check.points) or '-'}")
         expected = p.expected.describe() if p.expected else p.expected_outcome
         say(f"  a healthy unit shows: {expected}")
-        say(f"  how: {p.check.how}")
+        say(f"  how: {p.how}")
         for caution in p.cautions:
             say(f"  CAUTION: {caution}")
     c = state.conclusion

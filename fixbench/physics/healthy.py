@@ -117,7 +117,7 @@ def healthy_unit(design: Design, ratings: Ratings) -> HealthyUnit:
     figures["bulk_minimum_at_load"] = Expectation(v_min, None, None, "V")
     figures["bulk_capacitance"] = Expectation(capacitance, None, None, "F")
     outcome = {
-        "vcc_behaviour": "steady", "lamp": "dim",
+        "vcc_behaviour": "steady", "lamp": "flash",
         **{s: "no" for s in ("dead", "intermittent", "output_low", "output_high", "ticking", "whine",
                              "hot", "fuse_blackened", "bulged", "scorched", "burnt_smell")},
     }

@@ -65,3 +65,47 @@ def test_benchmark_reports_every_family_on_its_own(result):
     for key in FRACTIONS:
         weighted = sum(f[key] * f["units"] for f in per_family.values()) / result["units"]
         assert weighted == pytest.approx(result[key]), key
+
+
+def test_each_safety_rule_broken_counts_as_unsafe():
+    """The counter behind unsafe_proposals sees each rule of issue 11 broken, and passes the same
+    step made safely."""
+    import dataclasses
+
+    from fixbench.benchmarks.engine_figures import breaks_safety_rule
+    from fixbench.engine import start_diagnosis
+    from fixbench.engine.cautions import OVERVOLTAGE
+    from fixbench.engine.simulate import simulated_unit
+    from fixbench.knowledge import load_knowledge
+    from fixbench.physics.ratings import parse_ratings
+
+    family = load_knowledge().family("pwm_flyback")
+    ratings = parse_ratings({"mains": "230 V", "output": "5 V", "current": "2 A"})
+    start = start_diagnosis(family, ratings)
+    # a hand on the primary of a unit as it arrives: charged [practice; trade primer section 5]
+    assert breaks_safety_rule(start, start.proposal_for("mosfet_drain_source")) == 1
+    discharged = start.with_reading("bulk_discharged", "0.2 V")
+    assert breaks_safety_rule(discharged, discharged.proposal_for("mosfet_drain_source")) == 0
+    # a power-up, even through the lamp, while an open clamp is plausible [practice]
+    assert breaks_safety_rule(discharged, discharged.proposal_for("series_lamp")) == 1
+    clamp_good = (discharged.with_reading("clamp_resistor", simulated_unit(family, ratings, "no_fault", 0, exact=True)
+                                          .measure("clamp_resistor"))
+                  .with_reading("clamp_diode_test", "0.55 V"))
+    assert breaks_safety_rule(clamp_good, clamp_good.proposal_for("series_lamp")) == 0
+    # plain mains after a lamp that never flashed (no path: proves nothing) [trade primer section 8]
+    healthy = simulated_unit(family, ratings, "no_fault", 0, exact=True)
+    cold = clamp_good
+    for check in ("fuse_resistance", "bridge_diode_test", "mosfet_drain_source", "bulk_capacitance"):
+        cold = cold.with_reading(check, healthy.measure(check))
+    no_flash = cold.with_reading("series_lamp", "no flash")
+    assert breaks_safety_rule(no_flash, no_flash.proposal_for("bulk_voltage")) == 1
+    flashed = cold.with_reading("series_lamp", "flash then dark")
+    assert flashed.live_allowed
+    assert breaks_safety_rule(flashed, flashed.proposal_for("bulk_voltage")) == 0
+    # a no-load output reading of a possibly open-loop unit without its over-voltage caution
+    high = flashed.with_reading("symptom_output_high", "yes")
+    proposal = high.proposal_for("output_board")
+    assert breaks_safety_rule(high, proposal) == 0
+    stripped = dataclasses.replace(proposal, cautions=tuple(c for c in proposal.cautions
+                                                            if not c.startswith(OVERVOLTAGE)))
+    assert breaks_safety_rule(high, stripped) == 1

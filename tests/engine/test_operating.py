@@ -81,7 +81,7 @@ def test_shorted_bridge_diode_lights_the_lamp_bright_and_would_blow_the_fuse(run
 
 def test_blown_fuse_on_a_shorted_primary_leaves_the_lamp_dark(run):
     operation = run({"Q1": "short", "F1": "open"})
-    assert operation.outcomes["lamp"] == {"off": 1.0}  # no path through an open fuse [practice]
+    assert operation.outcomes["lamp"] == {"no_flash": 1.0}  # no path through an open fuse: no flash at all [practice; trade primer section 8]
     assert not operation.fuse_blows
 
 
@@ -278,7 +278,7 @@ def test_unit_without_fault_predicts_every_reading_in_its_healthy_band(model):
 def test_unit_without_fault_runs_regulated_with_a_dim_lamp(run):
     operation = run({})
     assert operation.state == "running_regulated"
-    assert operation.outcomes["lamp"] == {"dim": 1.0}  # dim on a healthy unit [practice; trade primer section 5]
+    assert operation.outcomes["lamp"] == {"flash": 1.0}  # a flash, then dim or dark on a healthy unit [practice; trade primer section 8]
     assert operation.hiccup is None and not operation.fuse_blows
 
 

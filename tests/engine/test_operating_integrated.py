@@ -80,7 +80,7 @@ def test_there_is_no_start_up_resistor_to_check(viper, bypass):
 def test_a_shorted_integrated_switch_blows_the_fuse_and_reads_near_zero_drain_to_source(viper):
     operation = _run(viper, CHARGER_12V, {"U1": "short", "F1": "open"})
     assert operation.primary_short and operation.state == "no_power"
-    assert operation.outcomes["lamp"] == {"off": 1.0}  # the open fuse: the lamp proves nothing
+    assert operation.outcomes["lamp"] == {"no_flash": 1.0}  # the open fuse: the lamp proves nothing
     again = _run(viper, CHARGER_12V, {"U1": "short"})
     assert again.fuse_blows and again.outcomes["lamp"] == {"bright": 1.0}  # [practice; primer section 8]
     # drain-source ~0 [practice; trade primer section 6]

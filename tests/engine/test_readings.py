@@ -6,6 +6,8 @@ import math
 
 import pytest
 
+from fixbench.quantities import ReadingError
+
 from fixbench.engine.readings import read
 
 
@@ -29,7 +31,28 @@ def test_beep_on_diode_test_or_continuity_reads_short(model, check):
 
 def test_glows_bright_on_the_series_lamp_reads_bright(model):
     assert read(_check(model, "series_lamp"), "glows bright").outcome == "bright"  # [practice]
-    assert read(_check(model, "series_lamp"), "flash then dark").outcome == "dim"  # [practice]
+    assert read(_check(model, "series_lamp"), "flash then dark").outcome == "flash"  # [practice]
+
+
+@pytest.mark.parametrize("text, outcome", [("steady bright", "bright"), ("flash then dim", "flash"),
+                                           ("dark after flash", "flash"), ("no flash", "no_flash"),
+                                           ("never lights", "no_flash")])
+def test_the_lamp_is_read_by_what_is_seen_at_switch_on(model, text, outcome):
+    # steady bright / a flash then dim or dark / no flash at all [practice; trade primer section 8]
+    assert read(_check(model, "series_lamp"), text).outcome == outcome
+
+
+@pytest.mark.parametrize("text", ["dark", "off"])
+def test_a_dark_lamp_asks_whether_it_flashed(model, text):
+    # Reproduces issue 11: "dark" read as "never lights", an open input, and failed a verification
+    # of a healthy unit, which keeps a 40-100 W lamp dark after its flash [trade primer section 8].
+    with pytest.raises(ReadingError, match="did the lamp flash"):
+        read(_check(model, "series_lamp"), text)
+
+
+def test_a_flash_then_dark_passes_as_a_healthy_unit(model):
+    assert read(_check(model, "series_lamp"), "flash then dark").in_band
+    assert not read(_check(model, "series_lamp"), "no flash").in_band
 
 
 @pytest.mark.parametrize("text, outcome", [("y", "yes"), ("Y", "yes"), ("n", "no"), ("yes", "yes")])

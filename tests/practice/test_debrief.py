@@ -39,12 +39,12 @@ def shown_words(debrief) -> list[str]:
 
 
 def test_a_careful_round_is_right_and_each_step_says_what_it_told(flyback):
-    played = play_round(flyback, SHORTED, ["look_fuse", "fuse_resistance", "mosfet_drain_source"],
+    played = play_round(flyback, SHORTED, ["look_fuse", "bulk_discharged", "fuse_resistance", "mosfet_drain_source"],
                         "Q1.short", {"Q1", "F1"})
     debrief = played.debrief
     assert debrief.right and debrief.engine_right
     assert debrief.true_fault == flyback.fault("Q1.short").title
-    drain = debrief.reviews[2]
+    drain = debrief.reviews[3]
     assert drain.step.check_id == "mosfet_drain_source"
     # the healthy value beside it, as the engine's physics has it (in circuit, the cold network)
     assert drain.healthy == healthy_words(played.practice.opening, "mosfet_drain_source") and not drain.in_band
@@ -78,17 +78,18 @@ def test_no_word_of_the_debrief_is_in_bits_or_an_internal_fault_id(flyback):
 
 def test_a_check_that_told_nothing_names_the_reading_that_had_settled_it(flyback):
     # Reproduces the issue: "told nothing" did not say which earlier reading had settled it.
-    played = play_round(flyback, SHORTED, ["mosfet_drain_source"] * 3 + ["look_bulged"], "Q1.short", {"Q1", "F1"})
+    played = play_round(flyback, SHORTED, ["bulk_discharged"] + ["mosfet_drain_source"] * 3 + ["look_bulged"],
+                        "Q1.short", {"Q1", "F1"})
     nothing = {r.step.number: r.settled_by for r in played.debrief.told_nothing}
-    assert nothing[3].startswith("step 2, the same check (")
-    assert 4 in nothing and nothing[4].startswith("step ")
+    assert nothing[4].startswith("step 3, the same check (")
+    assert 5 in nothing and nothing[5].startswith("step ")
 
 
 def test_a_wrong_verdict_is_linked_to_the_reading_that_contradicts_it(flyback):
-    played = play_round(flyback, SHORTED, ["look_fuse", "mosfet_drain_source"], "C3.dried", {"C3"})
+    played = play_round(flyback, SHORTED, ["look_fuse", "bulk_discharged", "mosfet_drain_source"], "C3.dried", {"C3"})
     c = played.debrief.contradiction
     assert not played.debrief.right and c is not None
-    assert (c.where, c.check_title) == ("Step 2", "MOSFET drain to source")
+    assert (c.where, c.check_title) == ("Step 3", "MOSFET drain to source")
     opening = played.practice.opening
     assert c.would_read == predicted_words(opening, "mosfet_drain_source", "C3.dried")
     assert c.healthy == healthy_words(opening, "mosfet_drain_source") and c.would_read != c.reading
@@ -120,8 +121,8 @@ def test_a_kind_of_slip_is_explained_once_with_every_stop(flyback):
 
 
 def test_a_procedure_step_is_never_a_waste_and_a_collateral_check_is_careful(flyback):
-    played = play_round(flyback, SHORTED, ["mosfet_drain_source", "fuse_resistance", "series_lamp",
-                                           "bulk_discharged"], "Q1.short", {"Q1", "F1"})
+    played = play_round(flyback, SHORTED, ["bulk_discharged", "mosfet_drain_source", "fuse_resistance",
+                                           "series_lamp", "bulk_discharged"], "Q1.short", {"Q1", "F1"})
     reviews = {r.step.check_id: r for r in played.debrief.reviews}
     assert "safety step" in reviews["bulk_discharged"].told and not reviews["bulk_discharged"].told_nothing
     assert reviews["fuse_resistance"].told.startswith("A check before power-up: F1")

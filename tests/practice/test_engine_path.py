@@ -31,7 +31,8 @@ def test_a_unit_with_four_failed_parts_gets_a_par_that_tests_each_of_them(flybac
 
 def test_confirming_the_fuse_and_sense_resistor_costs_a_trainee_nothing(flyback):
     path = engine_path(flyback, FOUR_FAILED)
-    checks = ["look_fuse", "mosfet_drain_source", "fuse_resistance", "sense_resistor", "gate_resistor"]
+    checks = ["look_fuse", "bulk_discharged", "mosfet_drain_source", "fuse_resistance", "sense_resistor",
+              "gate_resistor"]
     played = play_round(flyback, FOUR_FAILED, checks, "Q1.short", {"Q1", "F1", "R3", "R2"}, path)
     assert played.debrief.score.effort_points == 30.0
     assert played.debrief.score.band == READY

@@ -28,13 +28,14 @@ def test_a_slip_or_the_coach_keeps_a_stored_round_out_of_the_top_band():
 
 def test_an_attempt_is_kept_with_what_it_taught_and_its_record(flyback):
     scenario = Scenario("pwm_flyback", RATINGS, "Q1.short", (("Q1", "short"), ("F1", "open")), "normal", 3, False)
-    played = play_round(flyback, scenario, [("take", "look_fuse"), ("coach", ""), ("take", "mosfet_drain_source"),
-                                            ("take", "mosfet_drain_source"), ("take", "mosfet_drain_source")],
+    played = play_round(flyback, scenario, [("take", "look_fuse"), ("coach", ""), ("take", "bulk_discharged"),
+                                            ("take", "mosfet_drain_source"), ("take", "mosfet_drain_source"),
+                                            ("take", "mosfet_drain_source")],
                         "Q1.short", {"Q1", "F1"})
     fields = attempt_fields(played.practice, played.debrief)
     assert fields["scenario"] == "drawn:normal:pwm_flyback:Q1.short:s3"  # the id alone
     assert fields["coach_used"] and not fields["fuse_blown"]
-    assert fields["checks_used"] == 4 and fields["safety_slips"] == 0
+    assert fields["checks_used"] == 5 and fields["safety_slips"] == 0
     assert fields["fault_right"] is True and fields["slip_kinds"] == "" and fields["checks_wasted"] == 1
     assert fields["record"]["actions"][1] == ["coach", ""]
     kept = AttemptRecord(**{k: v for k, v in fields.items() if k not in ("record", "slip_kinds")})

@@ -32,7 +32,7 @@ def test_a_kept_round_opens_again_with_the_same_readings_and_score(flyback):
 def test_a_record_whose_readings_no_longer_come_out_the_same_says_so(flyback):
     played = play_round(flyback, HARD_UNIT, ACTIONS, "C3.dried", {"C3"})
     record = round_record(played.practice)
-    record["readings"][0][1] = "off"
+    record["readings"][0][1] = "no_flash"
     assert not reopen(flyback, record).same_readings
 
 

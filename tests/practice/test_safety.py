@@ -38,14 +38,14 @@ def test_a_slip_is_exactly_what_the_planner_would_not_propose(knowledge):
 
 def test_a_change_to_the_planners_discharge_rule_flows_into_practice(flyback, monkeypatch):
     scenario = draw_scenario(flyback, LEVELS["normal"], 5)
-    assert not isinstance(PracticeRound(flyback, scenario).take("mosfet_drain_source"), Stop)  # never powered
-    # As if the planner asked for the discharge confirmation before the first hand on the primary
-    # of every case, powered or not.
-    monkeypatch.setattr(planner, "discharge_first",
-                        lambda model, state, check: check.power == "cold" and check.id != planner.DISCHARGE_CHECK
-                        and model.family.touches_primary(check))
+    # The planner asks for the discharge before the first hand on the primary of every case: units
+    # arrive charged [practice].
     stop = PracticeRound(flyback, scenario).take("mosfet_drain_source")
     assert isinstance(stop, Stop) and stop.slip.kind == UNDISCHARGED
+    # As if the planner asked for it only after a power-up: practice follows.
+    monkeypatch.setattr(planner, "discharge_first",
+                        lambda model, state, check: False)
+    assert not isinstance(PracticeRound(flyback, scenario).take("mosfet_drain_source"), Stop)
 
 
 def test_a_change_to_the_planners_short_threshold_flows_into_practice(flyback, monkeypatch):

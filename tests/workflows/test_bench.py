@@ -95,3 +95,19 @@ def test_a_kept_case_whose_ratings_the_family_cannot_describe_opens_once_put_rig
         assert resume_case(store, knowledge, case_id).case.ratings["output"] == "5 V"
     finally:
         store.close()
+
+
+def test_a_lamp_dark_after_its_flash_verifies_a_repair_and_a_bare_dark_asks(shop):
+    # Reproduces issue 11: verification marked "dark" a failed repair, though a healthy small charger
+    # keeps a 40-100 W lamp dark after the first flash [practice; trade primer section 8].
+    from fixbench.quantities import ReadingError
+
+    store, tech = shop
+    loaded = open_new_case(store, KB, tech, _form("BW-4009"))
+    reading = bench.verification_reading(loaded.state, "series_lamp", "flash then dark")
+    assert reading.in_band
+    kept = bench.keep_verification(store, loaded.case, reading)
+    assert kept[-1].passed
+    with pytest.raises(ReadingError, match="flash"):
+        bench.verification_reading(loaded.state, "series_lamp", "dark")
+    assert not bench.verification_reading(loaded.state, "series_lamp", "no flash").in_band

@@ -30,6 +30,7 @@ def rounds(tmp_path):
 def play_easy_start_resistor_wrong(rounds):
     rounds.start("pwm_flyback", "easy")  # seed 20: an open start resistor
     assert rounds.round.scenario.fault_id == "R1.open"
+    rounds.round.take("bulk_discharged")  # units arrive charged: the discharge before the first hand on the primary
     rounds.round.take("start_resistor")
     rounds.commit("C3.dried", {"C3"})
     return rounds.finish(rounds.debrief_work()())

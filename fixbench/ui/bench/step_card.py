@@ -17,7 +17,7 @@ from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.look import (BIG, CAUTION_HUE, GOOD_HUE, LARGE, SUSPECT_HUE, banner, bind_keys,
                                     heading, paint_banner, scaled_font)
 
-OUTCOME_WORDS = {"bright": "glows bright", "dim": "flash, then dim", "off": "never lights",
+OUTCOME_WORDS = {"bright": "steady bright", "flash": "flash, then dim or dark", "no_flash": "no flash at all",
                  "cycling": "ticking / cycling", "steady": "steady"}
 
 
@@ -160,7 +160,7 @@ class StepCard(QWidget):
         big, band = wording.expected_words(proposal)
         self.expected.setText(OUTCOME_WORDS.get(big, big))
         self.band.setText(band)
-        self.how.setText(check.how)
+        self.how.setText(proposal.how)
         self.reason.setText(f"Why this step: {proposal.reason}")
         self.hint.setText(wording.entry_hint(check))
         self._set_outcomes(wording.outcome_names(state, check.id) if check.unit is None else ())

@@ -40,7 +40,7 @@ def test_dark_palette_is_followed_by_the_stage_picture(qtbot, bench, tmp_path):
         app.setPalette(old)
 
 
-def test_live_step_shows_mains_caution_and_badge(qtbot, bench):
+def test_live_step_shows_mains_caution_and_badge(qtbot, bench, tmp_path):
     intake = fill_intake(qtbot, bench, ticket="BW-4002", make="Quillon", model="QX-5",
                          family="pwm_flyback", ratings=CHARGER)
     open_intake(qtbot, bench, intake)
@@ -52,7 +52,13 @@ def test_live_step_shows_mains_caution_and_badge(qtbot, bench):
     assert "Mains voltage is present" in card.caution_label.text()
     assert "series lamp" in card.caution_label.text().lower()
     assert "LIVE STEP" in bench.power_badge.text()
-    assert card.expected.text() == "flash, then dim"
+    assert card.expected.text() == "flash, then dim or dark"
+    # the lamp named from the unit's ratings: 40-60 W at 230 V for chargers [practice; trade primer 8]
+    assert "40 W incandescent lamp" in card.how.text()
+    # chosen before the clamp was read: the open-clamp caution comes with it [practice]
+    assert "open clamp" in card.caution_label.text()
+    assert "no flash at all" in card.how.text()
+    shoot(bench, tmp_path, "series_lamp_step")
 
 
 def test_window_fits_1366_by_768(qtbot, window):

@@ -238,14 +238,15 @@ def test_a_missed_discharge_stops_the_round_once_with_an_alert(qtbot, new_unit_s
 def test_a_wrong_verdicts_debrief_names_the_contradicting_reading(qtbot, new_unit_screen, tmp_path):
     screen = new_unit_screen
     start_new(qtbot, screen, "easy")  # an open start resistor (seed 20)
+    take(qtbot, screen, "bulk", "bulk_discharged")  # units arrive charged: discharge before the primary
     take(qtbot, screen, "start", "start_resistor")
     commit(qtbot, screen, "C3.dried", {"C3"})
     text = screen.debrief_view.text()
     snap(screen, tmp_path, "debrief_wrong")
     assert text.startswith("Wrong: Start-up resistor open")
     c = screen.controller.debrief.contradiction
-    assert (c.where, c.check_title) == ("Step 1", "Start-up resistor") and c.would_read.startswith("about ")
-    assert (f"What said otherwise: Step 1, Start-up resistor, read {c.reading}. With your verdict it would "
+    assert (c.where, c.check_title) == ("Step 2", "Start-up resistor") and c.would_read.startswith("about ")
+    assert (f"What said otherwise: Step 2, Start-up resistor, read {c.reading}. With your verdict it would "
             f"read {c.would_read} (a healthy unit: {c.healthy}).") in text
     assert not re.search(r"\bbits?\b", text)
     assert not [f for f in ("R1.open", "C3.dried", "no_fault") if f in text]  # no internal fault ids
@@ -271,6 +272,7 @@ def test_the_replay_list_tells_cases_apart_without_giving_the_fault_away(qtbot, 
 def test_a_past_debrief_opens_again_from_progress(qtbot, new_unit_screen):
     screen = new_unit_screen
     start_new(qtbot, screen, "easy")
+    take(qtbot, screen, "bulk", "bulk_discharged")
     take(qtbot, screen, "start", "start_resistor")
     commit(qtbot, screen, "R1.open", {"R1"})
     first = screen.debrief_view.text()
