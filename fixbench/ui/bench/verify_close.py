@@ -3,6 +3,8 @@ typed) and closing the case with its outcome, bench minutes and the final price 
 
 from __future__ import annotations
 
+from html import escape
+
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (QComboBox, QFormLayout, QHBoxLayout, QLabel, QListWidget, QPushButton,
                                QVBoxLayout, QWidget)
@@ -10,6 +12,7 @@ from PySide6.QtWidgets import (QComboBox, QFormLayout, QHBoxLayout, QLabel, QLis
 from fixbench.store.errors import StoreInputError
 from fixbench.workflows import step_wording as wording
 from fixbench.workflows.money import read_amount
+from fixbench.workflows.verify_how import verification_how
 from fixbench.ui.bench.entry import CheckedField
 from fixbench.ui.bench.step_card import OUTCOME_WORDS as OUTCOME_WORDS_SHOWN
 from fixbench.ui.bench.look import BIG, SUSPECT_HUE, banner, bind_keys, heading, scaled_font
@@ -66,15 +69,28 @@ class VerifyPanel(QWidget):
         buttons.addWidget(self.repair_button)
         buttons.addStretch(1)
         buttons.addWidget(self.close_button)
+        self.how_label = QLabel()  # how to prove the repair, with the unit's own figures
+        self.how_label.setWordWrap(True)
+        self.how_label.setTextFormat(Qt.TextFormat.RichText)
+        self.how_label.setAlignment(Qt.AlignmentFlag.AlignTop)
+        readings = QVBoxLayout()
+        readings.addWidget(self.live_box)
+        readings.addWidget(self.title)
+        readings.addWidget(self.where)
+        readings.addWidget(self.expected)
+        readings.addWidget(self.field)
+        readings.addWidget(self.result)
+        readings.addWidget(self.list, 1)
+        how = QVBoxLayout()
+        how.addWidget(heading("How to prove it", factor=1.15))
+        how.addWidget(self.how_label, 1)
+        columns = QHBoxLayout()
+        columns.addLayout(readings, 6)
+        columns.addSpacing(16)
+        columns.addLayout(how, 5)
         layout = QVBoxLayout(self)
         layout.addWidget(heading("Verification: what a repaired unit must show", factor=1.15))
-        layout.addWidget(self.live_box)
-        layout.addWidget(self.title)
-        layout.addWidget(self.where)
-        layout.addWidget(self.expected)
-        layout.addWidget(self.field)
-        layout.addWidget(self.result)
-        layout.addWidget(self.list, 1)
+        layout.addLayout(columns, 1)
         layout.addLayout(buttons)
         self.setFocusProxy(self.field)
 
@@ -90,6 +106,8 @@ class VerifyPanel(QWidget):
             return
         self.steps = view.conclusion.verify
         state = view.state
+        self.how_label.setText("".join(f"<p><b>{escape(step.title)}</b><br>{escape(step.how)}</p>"
+                                       for step in verification_how(state.model.ratings)))
         latest = {}
         for v in view.verifications:
             latest[v.check_id] = v

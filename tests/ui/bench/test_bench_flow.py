@@ -61,6 +61,9 @@ def repair_and_verify(qtbot, bench, family_id: str, value: str, cost: str, tmp_p
     healthy = _unit(family_id, NO_FAULT, ratings)
     verify = bench.panels["verify"]
     shoot(bench.window(), tmp_path, f"{name}-verify")
+    if ratings == CHARGER:  # how to prove it, with the unit's own figures: R = V / I, P = V * I
+        assert "2.5 ohm resistor rated 10 W" in verify.how_label.text()
+        assert "40 W incandescent lamp" in verify.how_label.text()
     for step in bench.controller.view.conclusion.verify:
         assert verify.title.text() == step.title
         type_into(qtbot, verify.field.edit, healthy[step.check])
