@@ -11,13 +11,9 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from fixbench.physics import series_lamp
 from fixbench.quantities import format_quantity
 
-EFFICIENCY = 0.75  # a small offline supply's efficiency at full load, for its input power [memory]
-# Incandescent lamp sizes on the shelf; the lamp is the unit's input power up to 2-3x, at least
-# 40 W on 230 V mains and 60 W on 120 V for chargers and small adapters [practice; TRADE section 8].
-LAMP_WATTS = (25, 40, 60, 75, 100, 150, 200)
-LAMP_FLOOR_W = {230: 40, 120: 60}
 # Power resistor ratings on the shelf, W; the resistor is rated for at least the unit's output power
 # and runs hot at that load [practice].
 RESISTOR_WATTS = (1, 2, 3, 5, 10, 15, 20, 25, 50, 75, 100, 150, 200, 300)
@@ -33,10 +29,9 @@ class HowStep:
 
 
 def lamp_watts(ratings) -> int:
-    """The series lamp for the unit: its input power up to 2-3x, not under the mains' usual floor."""
-    floor = LAMP_FLOOR_W[230] if ratings.bench_mains > 180 else LAMP_FLOOR_W[120]
-    input_w = ratings.output_w / EFFICIENCY
-    return next((w for w in LAMP_WATTS if w >= max(floor, input_w)), LAMP_WATTS[-1])
+    """The series lamp for the unit: the same lamp the series-lamp step names (one rule, in
+    ``physics.series_lamp``), so the bench and the verification never disagree."""
+    return series_lamp.lamp_watts(ratings)
 
 
 def load_resistor(ratings) -> tuple[float, int]:
