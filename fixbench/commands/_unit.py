@@ -2,9 +2,8 @@
 
 from __future__ import annotations
 
-from pathlib import Path
 
-from fixbench.commands.usage import UsageError, near_matches
+from fixbench.commands.usage import UsageError, near_matches, read_bounded
 from fixbench.engine.fault_model import cached_fault_model
 from fixbench.knowledge import Family, load_knowledge
 from fixbench.knowledge.board import BoardError, BoardProfile, on_board, profile_from_data, profile_from_toml
@@ -40,13 +39,7 @@ def board_file(path_text: str | None) -> BoardProfile | None:
     """The board profile in that file, or a one-line error saying what is wrong with it."""
     if path_text is None:
         return None
-    try:
-        with Path(path_text).open("rb") as handle:
-            raw = handle.read(MAX_BOARD_BYTES + 1)
-    except OSError as err:
-        raise UsageError(f"cannot read {path_text}: {err.strerror or err}") from None
-    if len(raw) > MAX_BOARD_BYTES:
-        raise UsageError(f"{path_text}: larger than 1 MB; a board profile is a few kilobytes")
+    raw = read_bounded(path_text, MAX_BOARD_BYTES, "a board profile")
     try:
         return profile_from_toml(raw.decode("utf-8-sig"), path_text)
     except UnicodeDecodeError:

@@ -6,10 +6,8 @@ optionally "board": a board profile's tables (model, family, parts) as JSON.
 from __future__ import annotations
 
 import json
-import sys
-from pathlib import Path
 
-from fixbench.commands.usage import UsageError, near_matches
+from fixbench.commands.usage import UsageError, near_matches, read_bounded
 from fixbench.commands._output import print_json
 from fixbench.commands._unit import add_board_argument, board_data, board_file, family_and_ratings
 from fixbench.engine import start_diagnosis
@@ -60,18 +58,7 @@ def load_case(path_text: str) -> dict:
 
 
 def _case_bytes(path_text: str) -> bytes:
-    try:
-        if path_text == "-":
-            raw = sys.stdin.buffer.read(MAX_FILE_BYTES + 1)
-        else:
-            with Path(path_text).open("rb") as handle:
-                raw = handle.read(MAX_FILE_BYTES + 1)
-    except OSError as err:
-        raise UsageError(f"cannot read {path_text}: {err.strerror or err}") from None
-    if len(raw) > MAX_FILE_BYTES:
-        raise UsageError(f"{path_text}: larger than {MAX_FILE_BYTES // 1_000_000} MB; a case file "
-                         "is a few kilobytes")
-    return raw
+    return read_bounded(path_text, MAX_FILE_BYTES, "a case file", stdin=True)
 
 
 def replay(case: dict, source: str = "case", board=None):

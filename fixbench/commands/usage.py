@@ -7,7 +7,9 @@ point that imports them."""
 from __future__ import annotations
 
 import difflib
+import sys
 from collections.abc import Iterable
+from pathlib import Path
 
 
 class UsageError(Exception):
@@ -26,3 +28,19 @@ def near_matches(word: str, known: Iterable[str], limit: int = 5) -> str:
     if not picked:
         return ""
     return f" (did you mean: {', '.join(picked[:limit])}?)"
+
+
+def read_bounded(path_text: str, limit: int, what: str, stdin: bool = False) -> bytes:
+    """The bytes of a file the user named (with ``stdin``, "-" is standard input), or a one-line
+    error when it cannot be read or is larger than ``limit`` (``what``: what such a file is)."""
+    try:
+        if stdin and path_text == "-":
+            raw = sys.stdin.buffer.read(limit + 1)
+        else:
+            with Path(path_text).open("rb") as handle:
+                raw = handle.read(limit + 1)
+    except OSError as err:
+        raise UsageError(f"cannot read {path_text}: {err.strerror or err}") from None
+    if len(raw) > limit:
+        raise UsageError(f"{path_text}: larger than {limit // 1_000_000} MB; {what} is a few kilobytes")
+    return raw
